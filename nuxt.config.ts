@@ -1,0 +1,43 @@
+// Kerfbook: the Nuxt application. Client folders sit at the project root (srcDir '.').
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
+  css: [
+    '@fontsource/atkinson-hyperlegible/400.css',
+    '@fontsource/atkinson-hyperlegible/700.css',
+    '@fontsource/barlow-condensed/600.css',
+    '@fontsource/barlow-condensed/700.css',
+    '~/assets/css/main.css',
+  ],
+  tailwindcss: { cssPath: false, configPath: 'tailwind.config.ts', viewer: false },
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Kerfbook',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
+        { name: 'theme-color', content: '#12302b' },
+        { name: 'description', content: 'Tooling crib and cutter-life tracker for CNC routing shops.' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    // Every value here is overridden at run time by NUXT_<NAME> environment variables.
+    databaseUrl: '',
+    databasePoolSize: 10,
+    smtp: { host: '', port: 0, secure: false, user: '', pass: '', from: '' },
+    trustProxy: false,
+    loginThrottle: { windowMinutes: 15, perAccount: 5, perAddress: 30 },
+    session: { name: 'kerfbook-session', maxAge: 60 * 60 * 24 * 14 },
+    public: { baseUrl: '' },
+  },
+  nitro: {
+    experimental: { tasks: true },
+  },
+  typescript: { strict: true },
+  eslint: { config: { stylistic: false } },
+})

@@ -1,0 +1,13 @@
+// The shop's people, for the owner.
+export default defineEventHandler(async (event) => {
+  const owner = await requireRole(event, 'owner')
+  const rows = await useDb().selectFrom('users')
+    .select(['id', 'name', 'email', 'role', 'active', 'password_hash', 'created_at', 'last_login_at'])
+    .where('shop_id', '=', owner.shopId)
+    .orderBy('active', 'desc').orderBy('role', 'desc').orderBy('name')
+    .execute()
+  return rows.map(({ password_hash, ...u }) => ({
+    ...u,
+    status: !u.active ? 'off' as const : password_hash ? 'active' as const : 'invited' as const,
+  }))
+})

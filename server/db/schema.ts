@@ -1,0 +1,31 @@
+// The one Database type, composed from a file of tables per room.
+import type { AuthTokensTable, LoginAttemptsTable, ShopsTable, UsersTable } from './tables/shop'
+import type { CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable } from './tables/spindle'
+import type {
+  CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
+  SuppliersTable, ToolingReportsTable,
+} from './tables/crib'
+
+export type * from './tables/shop'
+export type * from './tables/spindle'
+export type * from './tables/crib'
+
+export interface Database {
+  shops: ShopsTable
+  users: UsersTable
+  auth_tokens: AuthTokensTable
+  login_attempts: LoginAttemptsTable
+  machines: MachinesTable
+  materials: MaterialsTable
+  suppliers: SuppliersTable
+  cutter_types: CutterTypesTable
+  purchase_orders: PurchaseOrdersTable
+  purchase_order_lines: PurchaseOrderLinesTable
+  cutters: CuttersTable
+  uploads: UploadsTable
+  cut_logs: CutLogsTable
+  cutter_events: CutterEventsTable
+  regrind_batches: RegrindBatchesTable
+  regrind_batch_items: RegrindBatchItemsTable
+  tooling_reports: ToolingReportsTable
+}

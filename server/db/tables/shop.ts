@@ -1,0 +1,53 @@
+// Shops and the people in them.
+import type { ColumnType, Generated } from 'kysely'
+
+export type Role = 'operator' | 'crib_manager' | 'owner'
+export type LengthUnit = 'mm' | 'in'
+type CreatedAt = ColumnType<Date, Date | string | undefined, never>
+
+export interface ShopsTable {
+  id: Generated<number>
+  name: string
+  time_zone: Generated<string>
+  report_time: Generated<string>
+  report_recipients: string[] | null
+  daily_all_clear: Generated<boolean>
+  life_threshold: Generated<number>
+  regrind_life_fraction: Generated<number>
+  order_cost_cents: Generated<number>
+  holding_rate: Generated<number>
+  created_at: CreatedAt
+}
+
+export interface UsersTable {
+  id: Generated<number>
+  shop_id: number
+  email: string
+  name: string
+  role: Role
+  password_hash: string | null
+  length_unit: Generated<LengthUnit>
+  active: Generated<boolean>
+  created_at: CreatedAt
+  last_login_at: Date | null
+}
+
+export interface AuthTokensTable {
+  id: Generated<number>
+  shop_id: number
+  user_id: number
+  purpose: 'invite' | 'reset'
+  token_hash: string
+  created_by: number | null
+  created_at: CreatedAt
+  expires_at: Date
+  used_at: Date | null
+}
+
+export interface LoginAttemptsTable {
+  id: Generated<string>
+  email: string
+  address: string
+  succeeded: boolean
+  attempted_at: Generated<Date>
+}

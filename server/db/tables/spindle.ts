@@ -1,0 +1,100 @@
+// The spindle room: machines, materials, cutters and what happens to them.
+import type { ColumnType, Generated } from 'kysely'
+
+export type CutterStatus = 'in_crib' | 'in_spindle' | 'at_regrind' | 'retired' | 'lost'
+export type MaterialFamily = 'hard_plastic' | 'soft_plastic' | 'wood' | 'sheet_goods' | 'non_ferrous' | 'foam' | 'composite'
+export type CutOutcome = 'clean' | 'melted' | 'chip_out' | 'fuzzy' | 'broken'
+export type CutterEventKind = 'received' | 'loaded' | 'returned' | 'cut_logged' | 'flagged_dull' | 'flagged_broken'
+  | 'sent_to_regrind' | 'reground' | 'retired' | 'lost' | 'found' | 'edited'
+// A timestamp with a default: optional on insert, a Date when read.
+type Stamp = ColumnType<Date, Date | string | undefined, Date | string>
+
+export interface MachinesTable {
+  id: Generated<number>
+  shop_id: number
+  name: string
+  description: Generated<string>
+  min_rpm: number
+  max_rpm: number
+  tool_changer: Generated<boolean>
+  active: Generated<boolean>
+  created_at: Stamp
+}
+
+export interface MaterialsTable {
+  id: Generated<number>
+  shop_id: number
+  name: string
+  family: MaterialFamily
+  wear_factor: number
+  common: Generated<boolean>
+  active: Generated<boolean>
+  created_at: Stamp
+}
+
+export interface CuttersTable {
+  id: Generated<number>
+  shop_id: number
+  type_id: number
+  code: string
+  status: Generated<CutterStatus>
+  machine_id: number | null
+  diameter_mm: number
+  regrind_count: Generated<number>
+  life_scale: Generated<number>
+  life_used: Generated<number>
+  minutes_this_life: Generated<number>
+  minutes_total: Generated<number>
+  flagged: 'dull' | 'broken' | null
+  flagged_at: Date | null
+  retired_reason: 'worn' | 'broken' | 'undersize' | 'other' | null
+  order_line_id: number | null
+  received_at: Stamp
+  updated_at: Stamp
+}
+
+export interface CutLogsTable {
+  id: Generated<string>
+  shop_id: number
+  cutter_id: number
+  machine_id: number | null
+  operator_id: number | null
+  material_id: number
+  minutes: number
+  wear_factor: number
+  life_added: number
+  regrind_count: Generated<number>
+  rpm: number | null
+  feed_mm_per_min: number | null
+  outcome: CutOutcome
+  note: Generated<string>
+  idempotency_key: string
+  cut_at: Stamp
+  created_at: Stamp
+}
+
+export interface CutterEventsTable {
+  id: Generated<string>
+  shop_id: number
+  cutter_id: number
+  kind: CutterEventKind
+  from_status: CutterStatus | null
+  to_status: CutterStatus | null
+  machine_id: number | null
+  actor_id: number | null
+  photo_id: number | null
+  note: Generated<string>
+  created_at: Stamp
+}
+
+export interface UploadsTable {
+  id: Generated<number>
+  shop_id: number
+  storage_key: string
+  kind: 'photo' | 'csv'
+  content_type: string
+  size_bytes: number
+  original_name: string | null
+  uploaded_by: number | null
+  created_at: Stamp
+}

@@ -1,0 +1,37 @@
+// Which cutters need the crib's attention, and whether to resharpen or retire them.
+// Pure: no framework or database imports.
+
+export type DueReason = 'life_used' | 'flagged_dull'
+export type DueAction = 'resharpen' | 'retire'
+
+export interface CutterForDue {
+  status: string
+  lifeUsed: number
+  flagged: 'dull' | 'broken' | null
+  regrindCount: number
+  diameterMm: number
+}
+
+export interface TypeForDue {
+  maxRegrinds: number
+  regrindDiameterLossMm: number
+  minUsableDiameterMm: number
+}
+
+/** Statuses in which a cutter can be due: it is in the shop and in use. */
+export const DUE_STATUSES = ['in_crib', 'in_spindle'] as const
+
+/** Why the cutter is due, or null when it is not. A flag beats the figure: the operator saw it. */
+export function dueReason(cutter: CutterForDue, lifeThreshold: number): DueReason | null {
+  if (!(DUE_STATUSES as readonly string[]).includes(cutter.status)) return null
+  if (cutter.flagged === 'dull') return 'flagged_dull'
+  if (cutter.lifeUsed >= lifeThreshold) return 'life_used'
+  return null
+}
+
+/** Resharpen while another regrind is allowed and leaves the diameter usable; otherwise retire. */
+export function dueAction(cutter: CutterForDue, type: TypeForDue): DueAction {
+  const diameterAfter = cutter.diameterMm - type.regrindDiameterLossMm
+  const canRegrind = cutter.regrindCount < type.maxRegrinds && diameterAfter >= type.minUsableDiameterMm - 1e-9
+  return canRegrind ? 'resharpen' : 'retire'
+}

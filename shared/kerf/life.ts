@@ -1,0 +1,29 @@
+// Life used by linear damage accumulation (Palmgren–Miner): each cut uses
+// minutes × wear factor / (rated life × life scale) of the cutter's current sharp life.
+// Pure: no framework or database imports.
+
+/** The share of a sharp life that one cut uses. `lifeScale` is 1 for a new cutter and the
+ *  shop's regrind life fraction for a reground one. */
+export function lifeAdded(minutes: number, wearFactor: number, ratedLifeMinutes: number, lifeScale = 1): number {
+  if (!(minutes >= 0) || !(wearFactor > 0) || !(ratedLifeMinutes > 0) || !(lifeScale > 0)) {
+    throw new RangeError('lifeAdded needs minutes ≥ 0 and a positive wear factor, rated life and life scale')
+  }
+  return (minutes * wearFactor) / (ratedLifeMinutes * lifeScale)
+}
+
+export interface CutForLife { minutes: number, wearFactor: number }
+
+/** Life used after a series of cuts, summed cut by cut (the order does not matter). */
+export function lifeUsed(cuts: readonly CutForLife[], ratedLifeMinutes: number, lifeScale = 1): number {
+  return cuts.reduce((sum, cut) => sum + lifeAdded(cut.minutes, cut.wearFactor, ratedLifeMinutes, lifeScale), 0)
+}
+
+/** Minutes left in one material before the current sharp life is used up; never negative. */
+export function remainingMinutes(used: number, ratedLifeMinutes: number, wearFactor: number, lifeScale = 1): number {
+  return (Math.max(0, 1 - used) * ratedLifeMinutes * lifeScale) / wearFactor
+}
+
+/** Rounds a life fraction the way the database stores it (numeric(10,6)). */
+export function roundLife(value: number): number {
+  return Math.round(value * 1e6) / 1e6
+}

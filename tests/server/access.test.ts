@@ -1,0 +1,102 @@
+// No session → 401, a role too low → 403, another shop's record → 404; and a shop's figures
+// never include another shop's rows.
+import { beforeAll, describe, expect, it } from 'vitest'
+import { newLabelCode } from '../../shared/kerf/label-code'
+import { appDb } from '../support/db'
+import { Client } from '../support/http'
+import { makeShop, type TestShop } from '../support/shops'
+
+let a: TestShop
+let b: TestShop
+
+beforeAll(async () => {
+  [a, b] = await Promise.all([makeShop('Alpha'), makeShop('Bravo')])
+})
+
+describe('without a session', () => {
+  it.each(['/api/me', '/api/users', '/api/dashboard', '/api/machines', '/api/materials'])('GET %s answers 401', async (path) => {
+    const res = await new Client().get(path)
+    expect(res.status).toBe(401)
+    expect(res.body.message).toBe('Sign in to continue.')
+  })
+
+  it('POST /api/invitations answers 401', async () => {
+    expect((await new Client().post('/api/invitations', { email: 'x@example.com', name: 'X', role: 'operator' })).status).toBe(401)
+  })
+})
+
+describe('with a role too low', () => {
+  it('operators and crib managers cannot list or invite people', async () => {
+    for (const client of [a.operator, a.crib]) {
+      const list = await client.get('/api/users')
+      expect(list.status).toBe(403)
+      expect(list.body.message).toMatch(/needs the owner role/)
+      expect((await client.post('/api/invitations', { email: 'new@example.com', name: 'New', role: 'operator' })).status).toBe(403)
+      expect((await client.patch(`/api/users/${a.ids.operator}`, { role: 'owner' })).status).toBe(403)
+    }
+  })
+
+  it('a demoted person loses the role at once, whatever the cookie says', async () => {
+    const shop = await makeShop('Demotion')
+    expect((await shop.owner.patch(`/api/users/${shop.ids.crib}`, { role: 'operator' })).status).toBe(200)
+    const me = await shop.crib.get('/api/me')
+    expect(me.body.role).toBe('operator')
+    expect((await shop.owner.patch(`/api/users/${shop.ids.crib}`, { active: false })).status).toBe(200)
+    expect((await shop.crib.get('/api/me')).status).toBe(401)
+  })
+})
+
+describe('another shop\'s records', () => {
+  it('answer 404 to the other shop\'s owner', async () => {
+    const res = await b.owner.patch(`/api/users/${a.ids.operator}`, { role: 'owner' })
+    expect(res.status).toBe(404)
+    const db = appDb()
+    try {
+      const row = await db.selectFrom('users').select('role').where('id', '=', a.ids.operator).executeTakeFirstOrThrow()
+      expect(row.role).toBe('operator')
+    } finally {
+      await db.destroy()
+    }
+  })
+
+  it('never appear in lists', async () => {
+    const users = await b.owner.get('/api/users')
+    const emails = users.body.map((u: { email: string }) => u.email)
+    expect(emails).toContain(b.emails.operator)
+    expect(emails).not.toContain(a.emails.operator)
+    const aMaterials = (await a.operator.get('/api/materials')).body.map((m: { id: number }) => m.id)
+    const bMaterials = (await b.operator.get('/api/materials')).body.map((m: { id: number }) => m.id)
+    expect(aMaterials.filter((id: number) => bMaterials.includes(id))).toEqual([])
+  })
+
+  it('do not count in the home figures', async () => {
+    const db = appDb()
+    try {
+      const type = await db.insertInto('cutter_types').values({
+        shop_id: a.id, name: 'Downcut 6 mm', profile: 'square_end', helix: 'downcut', flutes: 2, cutting_diameter_mm: 6.35,
+        shank_diameter_mm: 6.35, cutting_length_mm: 22, overall_length_mm: 64, rated_life_minutes: 900,
+        min_usable_diameter_mm: 6, unit_cost_cents: 3000,
+      }).returning('id').executeTakeFirstOrThrow()
+      await db.insertInto('cutters').values([
+        { shop_id: a.id, type_id: type.id, code: newLabelCode(), diameter_mm: 6.35, life_used: 0.95 },
+      ]).execute()
+    } finally {
+      await db.destroy()
+    }
+    const aDash = (await a.crib.get('/api/dashboard')).body
+    const bDash = (await b.crib.get('/api/dashboard')).body
+    expect(aDash.byStatus.in_crib).toBe(1)
+    expect(aDash.due).toHaveLength(1)
+    expect(aDash.due[0]).toMatchObject({ reason: 'life_used', action: 'resharpen' })
+    expect(bDash.byStatus.in_crib).toBe(0)
+    expect(bDash.due).toHaveLength(0)
+  })
+})
+
+describe('the shop keeps an owner', () => {
+  it('refuses to demote the last owner', async () => {
+    const res = await a.owner.patch(`/api/users/${a.ids.owner}`, { role: 'operator' })
+    expect(res.status).toBe(409)
+    expect(res.body.message).toMatch(/at least one owner/)
+  })
+})

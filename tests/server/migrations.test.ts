@@ -1,0 +1,100 @@
+// The migrations go up and down on the real PostgreSQL, and the schema refuses impossible values.
+import { sql } from 'kysely'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { connect, type Db } from '../../server/db/connect'
+import { freshDatabase, migrate } from '../support/db'
+
+const TABLES = ['shops', 'users', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
+  'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
+  'regrind_batch_items', 'tooling_reports']
+
+let url: string
+let db: Db
+
+async function tables(): Promise<string[]> {
+  const rows = await sql<{ table_name: string }>`
+    select table_name from information_schema.tables
+    where table_schema = 'public' and table_name not like 'kysely_%'`.execute(db)
+  return rows.rows.map((r) => r.table_name).sort()
+}
+
+beforeAll(async () => {
+  url = await freshDatabase('kerfbook_migrations_test')
+  db = connect(url, 2)
+})
+afterAll(async () => {
+  await db?.destroy()
+})
+
+describe('migrations', () => {
+  it('create every table of the product, and take them all away again', async () => {
+    await migrate(url, 'latest')
+    expect(await tables()).toEqual([...TABLES].sort())
+    await migrate(url, 'reset')
+    expect(await tables()).toEqual([])
+    await migrate(url, 'latest')
+    expect(await tables()).toEqual([...TABLES].sort())
+  })
+
+  it('a second run has nothing to do', async () => {
+    expect(await migrate(url, 'latest')).toContain('nothing to do')
+  })
+})
+
+describe('the schema refuses impossible values', () => {
+  let shopId: number
+  let typeId: number
+  let cutterId: number
+  let materialId: number
+
+  beforeAll(async () => {
+    shopId = (await db.insertInto('shops').values({ name: 'Schema shop' }).returning('id').executeTakeFirstOrThrow()).id
+    materialId = (await db.insertInto('materials').values({ shop_id: shopId, name: 'MDF', family: 'sheet_goods', wear_factor: 1 })
+      .returning('id').executeTakeFirstOrThrow()).id
+    typeId = (await db.insertInto('cutter_types').values({
+      shop_id: shopId, name: 'Upcut 6 mm', profile: 'square_end', helix: 'upcut', flutes: 2, cutting_diameter_mm: 6.35,
+      shank_diameter_mm: 6.35, cutting_length_mm: 22, overall_length_mm: 64, rated_life_minutes: 900,
+      min_usable_diameter_mm: 6, unit_cost_cents: 3000,
+    }).returning('id').executeTakeFirstOrThrow()).id
+    cutterId = (await db.insertInto('cutters').values({ shop_id: shopId, type_id: typeId, code: 'ABCD234', diameter_mm: 6.35 })
+      .returning('id').executeTakeFirstOrThrow()).id
+  })
+
+  const cutLog = (minutes: number, key: string) => db.insertInto('cut_logs').values({
+    shop_id: shopId, cutter_id: cutterId, material_id: materialId, minutes, wear_factor: 1, life_added: 0.01,
+    outcome: 'clean', idempotency_key: key,
+  }).execute()
+
+  it('a cut of zero or negative minutes', async () => {
+    await expect(cutLog(0, 'key-zero-minutes')).rejects.toThrow(/check constraint/)
+    await expect(cutLog(-5, 'key-negative-minutes')).rejects.toThrow(/check constraint/)
+    await expect(cutLog(12.5, 'key-good-minutes')).resolves.toBeDefined()
+  })
+
+  it('a diameter of zero or less', async () => {
+    await expect(db.insertInto('cutters').values({ shop_id: shopId, type_id: typeId, code: 'ABCD235', diameter_mm: 0 }).execute())
+      .rejects.toThrow(/check constraint/)
+  })
+
+  it('an unknown status, and a cutter in a spindle without a machine', async () => {
+    await expect(db.updateTable('cutters').set({ status: 'borrowed' as never }).where('id', '=', cutterId).execute())
+      .rejects.toThrow(/check constraint/)
+    await expect(db.updateTable('cutters').set({ status: 'in_spindle' }).where('id', '=', cutterId).execute())
+      .rejects.toThrow(/check constraint/)
+  })
+
+  it('a label code with look-alike characters', async () => {
+    await expect(db.insertInto('cutters').values({ shop_id: shopId, type_id: typeId, code: 'AB0O1IL', diameter_mm: 6 }).execute())
+      .rejects.toThrow(/check constraint/)
+  })
+
+  it('the same idempotency key twice in a shop', async () => {
+    await expect(cutLog(3, 'key-good-minutes')).rejects.toThrow(/duplicate key/)
+  })
+
+  it('a row that points at another shop\'s cutter type', async () => {
+    const other = (await db.insertInto('shops').values({ name: 'Other shop' }).returning('id').executeTakeFirstOrThrow()).id
+    await expect(db.insertInto('cutters').values({ shop_id: other, type_id: typeId, code: 'ABCD236', diameter_mm: 6 }).execute())
+      .rejects.toThrow(/foreign key/)
+  })
+})

@@ -1,0 +1,71 @@
+// Before the server tests: a fresh database, migrated; the mail catcher; and the built app
+// (.output) started against both. Tests reach them through the environment variables set here.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { existsSync } from 'node:fs'
+import path from 'node:path'
+import { startMailCatcher, type MailCatcher } from '../../scripts/mail-catcher'
+import { freshDatabase, migrate, projectRoot } from './db'
+
+const APP_PORT = 3311
+const SMTP_PORT = 2626
+const MAIL_WEB_PORT = 2680
+
+let server: ChildProcess | undefined
+let catcher: MailCatcher | undefined
+
+export async function setup() {
+  process.env.KERFBOOK_TEST_ADMIN_URL ??= 'postgres://postgres@127.0.0.1:55433/postgres'
+  const entry = path.join(projectRoot, '.output/server/index.mjs')
+  if (!existsSync(entry)) throw new Error('No built app in .output: run the tests with `npm test`, which builds first.')
+
+  const databaseUrl = await freshDatabase('kerfbook_test')
+  await migrate(databaseUrl)
+  catcher = await startMailCatcher({ smtpPort: SMTP_PORT, httpPort: MAIL_WEB_PORT })
+
+  const baseUrl = `http://127.0.0.1:${APP_PORT}`
+  server = spawn(process.execPath, [entry], {
+    cwd: projectRoot,
+    env: {
+      ...process.env,
+      HOST: '127.0.0.1',
+      PORT: String(APP_PORT),
+      NUXT_DATABASE_URL: databaseUrl,
+      NUXT_SESSION_PASSWORD: 'test-session-password-that-is-long-enough-0123456789',
+      NUXT_SMTP_HOST: '127.0.0.1',
+      NUXT_SMTP_PORT: String(SMTP_PORT),
+      NUXT_SMTP_FROM: 'Kerfbook <kerfbook@example.com>',
+      NUXT_PUBLIC_BASE_URL: baseUrl,
+      // Lets the throttling tests speak for other addresses; nothing else sends the header.
+      NUXT_TRUST_PROXY: 'true',
+    },
+    stdio: ['ignore', 'inherit', 'inherit'],
+  })
+  await waitFor(`${baseUrl}/api/me`)
+
+  process.env.KERFBOOK_TEST_URL = baseUrl
+  process.env.KERFBOOK_TEST_DATABASE_URL = databaseUrl
+  process.env.KERFBOOK_TEST_MAIL_URL = `http://127.0.0.1:${MAIL_WEB_PORT}`
+}
+
+export async function teardown() {
+  if (server && server.exitCode === null) {
+    const exited = new Promise((resolve) => server!.once('exit', resolve))
+    server.kill('SIGTERM')
+    await exited
+  }
+  await catcher?.close()
+}
+
+async function waitFor(url: string, timeoutMs = 30_000) {
+  const until = Date.now() + timeoutMs
+  while (Date.now() < until) {
+    if (server?.exitCode !== null) throw new Error(`The app under test exited with code ${server?.exitCode}`)
+    try {
+      await fetch(url)
+      return
+    } catch {
+      await new Promise((r) => setTimeout(r, 150))
+    }
+  }
+  throw new Error(`The app under test did not answer at ${url}`)
+}

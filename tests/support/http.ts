@@ -1,0 +1,69 @@
+// A small HTTP client for the app under test, keeping its own session cookie like a browser.
+export interface Answer<T = any> { status: number, body: T, headers: Headers }
+
+export function baseUrl(): string {
+  const url = process.env.KERFBOOK_TEST_URL
+  if (!url) throw new Error('KERFBOOK_TEST_URL is not set: run the tests through `npm test`.')
+  return url
+}
+
+export class Client {
+  private cookie = ''
+  constructor(private readonly extraHeaders: Record<string, string> = {}) {}
+
+  async request<T = any>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Answer<T>> {
+    const init: RequestInit = {
+      method,
+      redirect: 'manual',
+      headers: {
+        accept: 'application/json',
+        ...this.extraHeaders,
+        ...headers,
+        ...(this.cookie && { cookie: this.cookie }),
+        ...(body !== undefined && !(body instanceof FormData) && { 'content-type': 'application/json' }),
+      },
+      body: body === undefined ? undefined : body instanceof FormData ? body : JSON.stringify(body),
+    }
+    const res = await fetch(baseUrl() + path, init)
+    const setCookie = res.headers.getSetCookie()
+    for (const c of setCookie) {
+      const pair = c.split(';')[0]!
+      // An emptied cookie (sign-out) clears ours.
+      this.cookie = pair.endsWith('=') ? '' : pair
+    }
+    const text = await res.text()
+    let parsed: unknown = text
+    try {
+      parsed = text ? JSON.parse(text) : null
+    } catch {
+      parsed = text
+    }
+    return { status: res.status, body: parsed as T, headers: res.headers }
+  }
+
+  get<T = any>(path: string) { return this.request<T>('GET', path) }
+  post<T = any>(path: string, body?: unknown, headers?: Record<string, string>) { return this.request<T>('POST', path, body ?? {}, headers) }
+  patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body ?? {}) }
+
+  async login(email: string, password: string): Promise<Answer> {
+    const res = await this.post('/api/auth/login', { email, password })
+    if (res.status !== 200) throw new Error(`sign-in as ${email} answered ${res.status}: ${JSON.stringify(res.body)}`)
+    return res
+  }
+}
+
+/** Mail caught by the test mail catcher, newest last. */
+export async function caughtMail(): Promise<Array<{ to: string[], subject: string, text: string, html: string }>> {
+  const res = await fetch(`${process.env.KERFBOOK_TEST_MAIL_URL}/messages.json`)
+  return res.json()
+}
+
+export async function waitForMail(to: string, subjectPart: string, timeoutMs = 5000) {
+  const until = Date.now() + timeoutMs
+  while (Date.now() < until) {
+    const found = (await caughtMail()).filter((m) => m.to.includes(to) && m.subject.includes(subjectPart)).at(-1)
+    if (found) return found
+    await new Promise((r) => setTimeout(r, 100))
+  }
+  throw new Error(`no mail to ${to} about "${subjectPart}" arrived`)
+}
