@@ -35,6 +35,7 @@ cleanup() {
 }
 trap cleanup EXIT INT TERM
 
+mkdir -p .data
 bash scripts/pg.sh start kerfbook
 node --import tsx scripts/migrate.ts latest
 shops=$(node --import tsx -e "
