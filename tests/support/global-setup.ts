@@ -6,9 +6,10 @@ import path from 'node:path'
 import { startMailCatcher, type MailCatcher } from '../../scripts/mail-catcher'
 import { freshDatabase, migrate, projectRoot } from './db'
 
-const APP_PORT = 3311
-const SMTP_PORT = 2626
-const MAIL_WEB_PORT = 2680
+// Ports may be moved so that two checkouts can run their tests side by side.
+const APP_PORT = Number(process.env.KERFBOOK_TEST_APP_PORT ?? 3311)
+const SMTP_PORT = Number(process.env.KERFBOOK_TEST_SMTP_PORT ?? 2626)
+const MAIL_WEB_PORT = Number(process.env.KERFBOOK_TEST_MAIL_WEB_PORT ?? 2680)
 
 let server: ChildProcess | undefined
 let catcher: MailCatcher | undefined
