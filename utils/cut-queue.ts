@@ -1,0 +1,255 @@
+// The offline cut-log queue: a log is saved on the phone first, then sent, and kept until the
+// server has it. Framework-free (storage and sender are injected) so it runs in Node's tests.
+
+export type CutOutcome = 'clean' | 'melted' | 'chip_out' | 'fuzzy' | 'broken'
+
+/** The body of POST /api/cutters/:id/cuts. */
+export interface CutBody {
+  idempotencyKey: string
+  materialId: number
+  minutes: number
+  outcome: CutOutcome
+  rpm?: number
+  feedMmPerMin?: number
+  note?: string
+  machineId?: number
+  /** When the cut finished, so a log sent late keeps its real time. */
+  cutAt: string
+}
+
+export type QueuedState = 'waiting' | 'sending' | 'failed'
+
+export interface QueuedCut {
+  /** The idempotency key: the same on every attempt, so the server counts the log once. */
+  key: string
+  cutterId: number
+  cutterCode: string
+  /** The user who logged it; only their session may send it. */
+  ownerId: number
+  /** Shown while the log waits, so the operator recognises it. */
+  materialName: string
+  body: CutBody
+  state: QueuedState
+  attempts: number
+  queuedAt: string
+  /** Why it failed or is still waiting, in the server's words when it answered. */
+  message?: string
+  fields?: Record<string, string>
+}
+
+export type SendOutcome =
+  | { kind: 'sent', status: number, data: unknown }
+  /** No answer, or one that may pass (5xx, 408, 429): try again later with the same key. */
+  | { kind: 'retry', status?: number, message: string }
+  /** The server refused the log itself: sending it again would not help. */
+  | { kind: 'rejected', status: number, message: string, fields: Record<string, string> }
+
+export type CutSender = (item: QueuedCut) => Promise<SendOutcome>
+
+export interface KeyValueStorage {
+  getItem(key: string): string | null
+  setItem(key: string, value: string): void
+}
+
+export type SubmitResult =
+  | { state: 'sent', item: QueuedCut, data: unknown }
+  | { state: 'waiting' | 'failed', item: QueuedCut }
+
+export interface CutQueueOptions {
+  storage: KeyValueStorage
+  send: CutSender
+  /** The signed-in user's id, or null when nobody is (then nothing is sent). */
+  currentOwner: () => number | null
+  storageKey?: string
+  onChange?: (items: QueuedCut[]) => void
+  onSent?: (item: QueuedCut, data: unknown) => void
+  now?: () => Date
+}
+
+/** Bump the version when QueuedCut changes shape; an old phone's queue is then migrated or read as empty. */
+export const CUT_QUEUE_STORAGE_KEY = 'kerfbook.cut-queue.v1'
+
+export function isRetryableStatus(status: number): boolean {
+  return status >= 500 || status === 408 || status === 429
+}
+
+export function createCutQueue(options: CutQueueOptions) {
+  const storageKey = options.storageKey ?? CUT_QUEUE_STORAGE_KEY
+  const now = options.now ?? (() => new Date())
+  let items: QueuedCut[] = load()
+  let running: Promise<void> | null = null
+  const lastResult = new Map<string, SubmitResult>()
+
+  function load(): QueuedCut[] {
+    const raw = options.storage.getItem(storageKey)
+    if (!raw) return []
+    try {
+      const parsed = JSON.parse(raw) as { items?: unknown }
+      const list = Array.isArray(parsed.items) ? parsed.items.filter(isQueuedCut) : []
+      // A send cut short by a reload never got its answer: it waits again, with the same key.
+      return list.map((item) => (item.state === 'sending' ? { ...item, state: 'waiting' as const } : item))
+    } catch (err) {
+      console.warn('The saved cut-log queue could not be read; starting empty.', err)
+      return []
+    }
+  }
+
+  function save() {
+    options.storage.setItem(storageKey, JSON.stringify({ items }))
+    options.onChange?.(list())
+  }
+
+  function list(): QueuedCut[] {
+    return items.map((item) => ({ ...item }))
+  }
+
+  function patch(key: string, change: Partial<QueuedCut>) {
+    items = items.map((item) => (item.key === key ? { ...item, ...change } : item))
+    save()
+  }
+
+  function find(key: string) {
+    return items.find((item) => item.key === key)
+  }
+
+  function enqueue(input: Omit<QueuedCut, 'key' | 'state' | 'attempts' | 'queuedAt'>): QueuedCut {
+    const item: QueuedCut = {
+      ...input,
+      key: input.body.idempotencyKey,
+      state: 'waiting',
+      attempts: 0,
+      queuedAt: now().toISOString(),
+    }
+    if (find(item.key)) throw new Error(`A cut log with the key ${item.key} is already queued.`)
+    items = [...items, item]
+    save()
+    return { ...item }
+  }
+
+  async function sendOne(item: QueuedCut) {
+    patch(item.key, { state: 'sending', attempts: item.attempts + 1 })
+    let outcome: SendOutcome
+    try {
+      outcome = await options.send({ ...item, attempts: item.attempts + 1 })
+    } catch (err) {
+      outcome = { kind: 'retry', message: err instanceof Error ? err.message : String(err) }
+    }
+    const current = find(item.key)
+    if (!current) return // discarded while in flight
+    if (outcome.kind === 'sent') {
+      items = items.filter((i) => i.key !== item.key)
+      save()
+      lastResult.set(item.key, { state: 'sent', item: current, data: outcome.data })
+      options.onSent?.(current, outcome.data)
+    } else if (outcome.kind === 'retry') {
+      patch(item.key, { state: 'waiting', message: outcome.message, fields: undefined })
+      lastResult.set(item.key, { state: 'waiting', item: find(item.key)! })
+    } else {
+      patch(item.key, { state: 'failed', message: outcome.message, fields: outcome.fields })
+      lastResult.set(item.key, { state: 'failed', item: find(item.key)! })
+    }
+  }
+
+  /** Sends every waiting log of the signed-in user once, oldest first. One flush runs at a time:
+   *  a call during a flush joins it, and a log queued meanwhile is picked up by it. */
+  function flush(): Promise<void> {
+    if (running) return running
+    running = (async () => {
+      const tried = new Set<string>()
+      try {
+        for (;;) {
+          const owner = options.currentOwner()
+          const next = items.find((i) => i.state === 'waiting' && i.ownerId === owner && !tried.has(i.key))
+          if (!next) break
+          tried.add(next.key)
+          await sendOne(next)
+        }
+      } finally {
+        running = null
+      }
+    })()
+    return running
+  }
+
+  /** Queues a new log and tries to send it at once. */
+  async function submit(input: Omit<QueuedCut, 'key' | 'state' | 'attempts' | 'queuedAt'>): Promise<SubmitResult> {
+    const item = enqueue(input)
+    return settle(item.key)
+  }
+
+  async function settle(key: string): Promise<SubmitResult> {
+    lastResult.delete(key)
+    await flush()
+    // A flush already under way when this log was queued may have ended just before reaching it.
+    if (!lastResult.has(key) && find(key)?.state === 'waiting') await flush()
+    const result = lastResult.get(key)
+    if (result) return result
+    const item = find(key)
+    if (!item) throw new Error(`The cut log ${key} is no longer queued.`)
+    return { state: item.state === 'failed' ? 'failed' : 'waiting', item: { ...item } }
+  }
+
+  /** After an edit (or to try a refused log again): the changed log waits again under the same key. */
+  async function resubmit(key: string, change?: Partial<Pick<QueuedCut, 'body' | 'materialName'>>): Promise<SubmitResult> {
+    const item = find(key)
+    if (!item) throw new Error(`The cut log ${key} is no longer queued.`)
+    const body = change?.body ? { ...change.body, idempotencyKey: key } : item.body
+    patch(key, { ...change, body, state: 'waiting', message: undefined, fields: undefined })
+    return settle(key)
+  }
+
+  function discard(key: string) {
+    items = items.filter((i) => i.key !== key)
+    save()
+  }
+
+  /** Another tab changed the stored queue: take its copy. */
+  function reload() {
+    items = load()
+    options.onChange?.(list())
+  }
+
+  return { items: list, enqueue, submit, resubmit, discard, flush, reload, get flushing() { return running !== null } }
+}
+
+export type CutQueue = ReturnType<typeof createCutQueue>
+
+function isQueuedCut(value: unknown): value is QueuedCut {
+  const v = value as QueuedCut
+  return typeof v === 'object' && v !== null && typeof v.key === 'string' && typeof v.cutterId === 'number'
+    && typeof v.ownerId === 'number' && typeof v.body === 'object' && v.body !== null && typeof v.body.idempotencyKey === 'string'
+    && (v.state === 'waiting' || v.state === 'sending' || v.state === 'failed')
+}
+
+type FetchLike = (input: string, init: { method: string, headers: Record<string, string>, body: string, credentials: 'same-origin', signal?: AbortSignal }) => Promise<Pick<Response, 'status' | 'ok' | 'json' | 'statusText'>>
+
+/** A sender over the platform's fetch. No response at all (offline, DNS, timeout) or a passing
+ *  server trouble (5xx, 408, 429) means "retry"; any other refusal carries the server's message. */
+export function createFetchSender(fetchImpl: FetchLike, options: { baseUrl?: string, timeoutMs?: number } = {}): CutSender {
+  const timeoutMs = options.timeoutMs ?? 20_000
+  return async (item) => {
+    let response: Awaited<ReturnType<FetchLike>>
+    try {
+      response = await fetchImpl(`${options.baseUrl ?? ''}/api/cutters/${item.cutterId}/cuts`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', 'accept': 'application/json' },
+        body: JSON.stringify(item.body),
+        credentials: 'same-origin',
+        signal: typeof AbortSignal !== 'undefined' && 'timeout' in AbortSignal ? AbortSignal.timeout(timeoutMs) : undefined,
+      })
+    } catch (err) {
+      return { kind: 'retry', message: `No answer from the server (${err instanceof Error ? err.message : String(err)}).` }
+    }
+    const data = await response.json().catch(() => null) as { message?: string, statusMessage?: string, data?: { fields?: Record<string, string> } } | null
+    if (response.ok) return { kind: 'sent', status: response.status, data }
+    const message = data?.message || data?.statusMessage || response.statusText || `The server answered ${response.status}.`
+    if (isRetryableStatus(response.status)) return { kind: 'retry', status: response.status, message }
+    return { kind: 'rejected', status: response.status, message, fields: data?.data?.fields ?? {} }
+  }
+}
+
+/** Storage that lives only as long as the page, for browsers that refuse localStorage. */
+export function memoryStorage(): KeyValueStorage {
+  const map = new Map<string, string>()
+  return { getItem: (k) => map.get(k) ?? null, setItem: (k, v) => { map.set(k, v) } }
+}
