@@ -1,0 +1,9 @@
+// Starts the offline cut-log queue on every page load, so logs left waiting by an earlier
+// visit (or a reload) are sent as soon as the app is up.
+import { useCutQueueStore } from '~~/stores/cutQueue'
+
+export default defineNuxtPlugin(() => {
+  onNuxtReady(() => {
+    useCutQueueStore().start()
+  })
+})

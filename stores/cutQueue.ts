@@ -1,0 +1,96 @@
+// The offline cut-log queue as shared client state: the cutter page submits through it, the
+// layout's badge counts what waits. The queue itself (utils/cut-queue.ts) keeps it in localStorage.
+import { defineStore } from 'pinia'
+import {
+  createCutQueue, createFetchSender, CUT_QUEUE_STORAGE_KEY, memoryStorage,
+  type CutBody, type CutQueue, type KeyValueStorage, type QueuedCut, type SubmitResult,
+} from '~/utils/cut-queue'
+
+/** How often waiting logs are tried again while any wait. */
+const RETRY_EVERY_MS = 20_000
+
+export interface NewCut {
+  cutterId: number
+  cutterCode: string
+  materialName: string
+  body: CutBody
+}
+
+export interface SentCut { key: string, cutterId: number, cutterCode: string, data: unknown }
+
+export const useCutQueueStore = defineStore('cutQueue', () => {
+  const { user } = useUserSession()
+  const all = ref<QueuedCut[]>([])
+  /** The last log the server took, for pages to refresh what they show. */
+  const lastSent = ref<SentCut | null>(null)
+  let queue: CutQueue | null = null
+  let timer: ReturnType<typeof setInterval> | null = null
+
+  const mine = computed(() => all.value.filter((item) => item.ownerId === user.value?.id))
+  const waiting = computed(() => mine.value.filter((item) => item.state !== 'failed'))
+  const failed = computed(() => mine.value.filter((item) => item.state === 'failed'))
+  const forCutter = (cutterId: number) => mine.value.filter((item) => item.cutterId === cutterId)
+
+  function browserStorage(): KeyValueStorage {
+    try {
+      const probe = `${CUT_QUEUE_STORAGE_KEY}.probe`
+      localStorage.setItem(probe, '1')
+      localStorage.removeItem(probe)
+      return localStorage
+    } catch (err) {
+      console.warn('localStorage is not available; queued cut logs last only until the page closes.', err)
+      return memoryStorage()
+    }
+  }
+
+  /** Starts the queue in the browser: reads what a previous page left, and keeps trying. Idempotent. */
+  function start(): CutQueue {
+    if (queue) return queue
+    if (!import.meta.client) throw new Error('The cut-log queue runs in the browser only.')
+    queue = createCutQueue({
+      storage: browserStorage(),
+      send: createFetchSender(window.fetch.bind(window)),
+      currentOwner: () => user.value?.id ?? null,
+      onChange: (items) => {
+        all.value = items
+        keepTrying()
+      },
+      onSent: (item, data) => { lastSent.value = { key: item.key, cutterId: item.cutterId, cutterCode: item.cutterCode, data } },
+    })
+    all.value = queue.items()
+    window.addEventListener('online', () => void queue?.flush())
+    document.addEventListener('visibilitychange', () => {
+      if (document.visibilityState === 'visible') void queue?.flush()
+    })
+    window.addEventListener('storage', (event) => {
+      if (event.key === CUT_QUEUE_STORAGE_KEY) queue?.reload()
+    })
+    // Someone signing in on this phone may have logs of their own waiting.
+    watch(() => user.value?.id, () => void queue?.flush())
+    keepTrying()
+    void queue.flush()
+    return queue
+  }
+
+  function keepTrying() {
+    const anyWaiting = all.value.some((item) => item.state !== 'failed')
+    if (anyWaiting && !timer) {
+      timer = setInterval(() => void queue?.flush(), RETRY_EVERY_MS)
+    } else if (!anyWaiting && timer) {
+      clearInterval(timer)
+      timer = null
+    }
+  }
+
+  async function submit(cut: NewCut): Promise<SubmitResult> {
+    const ownerId = user.value?.id
+    if (!ownerId) throw new Error('Sign in to log a cut.')
+    return start().submit({ ...cut, ownerId })
+  }
+
+  const resubmit = (key: string, change?: { body: CutBody, materialName: string }) => start().resubmit(key, change)
+  const discard = (key: string) => start().discard(key)
+  const flush = () => start().flush()
+
+  return { all, mine, waiting, failed, lastSent, forCutter, start, submit, resubmit, discard, flush }
+})
