@@ -1,10 +1,11 @@
 // The navigation of the shell, filtered by the signed-in role.
 import { roleAtLeast, type Role } from '#shared/kerf/roles'
 
-export interface NavItem { to: string, label: string, icon: 'home' | 'people' | 'account', role: Role }
+export interface NavItem { to: string, label: string, icon: 'home' | 'scan' | 'people' | 'account', role: Role }
 
 const ITEMS: NavItem[] = [
   { to: '/', label: 'Home', icon: 'home', role: 'operator' },
+  { to: '/scan', label: 'Scan', icon: 'scan', role: 'operator' },
   { to: '/team', label: 'Team', icon: 'people', role: 'owner' },
   { to: '/account', label: 'Account', icon: 'account', role: 'operator' },
 ]

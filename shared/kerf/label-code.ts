@@ -26,3 +26,20 @@ export function normalizeLabelCode(typed: string): string {
 export function isLabelCode(code: string): boolean {
   return new RegExp(`^[${LABEL_ALPHABET}]{4,12}$`).test(code)
 }
+
+/** The label code in what a camera read off a label: the URL of a cutter page (…/c/CODE) or a
+ *  bare code. Null for anything else, so a stray QR code never leads off to another site. */
+export function labelCodeFromScan(text: string): string | null {
+  const trimmed = text.trim()
+  const fromUrl = /\/c\/([^/?#\s]+)\/?(?:[?#]\S*)?$/i.exec(trimmed)
+  let candidate = trimmed
+  if (fromUrl) {
+    try {
+      candidate = decodeURIComponent(fromUrl[1]!)
+    } catch {
+      return null // a malformed escape is not one of our labels
+    }
+  }
+  const code = normalizeLabelCode(candidate)
+  return isLabelCode(code) ? code : null
+}

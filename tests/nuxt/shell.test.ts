@@ -7,10 +7,14 @@ import DueList from '~/components/home/DueList.vue'
 import { navigationFor } from '~/composables/useNavigation'
 
 describe('navigation', () => {
+  it('offers the scanner to every role', () => {
+    for (const role of ['operator', 'crib_manager', 'owner'] as const) expect(navigationFor(role).map((i) => i.to)).toContain('/scan')
+  })
+
   it('shows the team page to owners only', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
-    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/account'])
+    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/account'])
     expect(navigationFor(undefined)).toEqual([])
   })
 })
