@@ -31,6 +31,12 @@ export default defineNuxtConfig({
     databasePoolSize: 10,
     smtp: { host: '', port: 0, secure: false, user: '', pass: '', from: '' },
     trustProxy: false,
+    // Photos and CSV uploads: local disk by default, an S3-compatible bucket with driver 's3'.
+    uploads: {
+      driver: 'fs',
+      dir: '.data/uploads',
+      s3: { endpoint: '', region: '', bucket: '', accessKeyId: '', secretAccessKey: '' },
+    },
     loginThrottle: { windowMinutes: 15, perAccount: 5, perAddress: 30 },
     session: { name: 'kerfbook-session', maxAge: 60 * 60 * 24 * 14 },
     public: { baseUrl: '' },

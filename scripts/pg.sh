@@ -4,14 +4,16 @@
 #   scripts/pg.sh start [database]   start (safe to run twice) and create the database if missing
 #   scripts/pg.sh stop               stop cleanly
 #   scripts/pg.sh status             say whether it runs
-# Settings: KERFBOOK_PG_PORT (55432), KERFBOOK_PG_DIR (/var/tmp/kerfbook-pg/<port>),
+# Settings: KERFBOOK_PG_PORT (55432), KERFBOOK_PG_DIR (/var/tmp/kerfbook-pg/<port> for root,
+#           /var/tmp/kerfbook-pg-<user>/<port> for anyone else),
 #           KERFBOOK_PG_FAST=1 turns off durable commits (tests only).
 set -euo pipefail
 
 cmd=${1:-status}
 database=${2:-}
 port=${KERFBOOK_PG_PORT:-55432}
-base=${KERFBOOK_PG_DIR:-/var/tmp/kerfbook-pg/$port}
+if [ "$(id -u)" -eq 0 ]; then default_base=/var/tmp/kerfbook-pg; else default_base=/var/tmp/kerfbook-pg-$(id -un); fi
+base=${KERFBOOK_PG_DIR:-$default_base/$port}
 data="$base/data"
 sockets="$base/run"
 log="$base/server.log"
@@ -65,7 +67,7 @@ start() {
   if [ "$(id -u)" -eq 0 ]; then
     # The postgres user must reach the folder: every parent has to be traversable.
     chown "$owner" "$base"
-    chmod 755 "$base"
+    chmod 755 "$base" "$(dirname "$base")"
   fi
   if [ ! -f "$data/PG_VERSION" ]; then
     say "creating a cluster in $data"

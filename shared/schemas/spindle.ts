@@ -1,0 +1,35 @@
+// Inputs of the spindle routes, shared with the phone page's forms.
+import { z } from 'zod'
+
+export const CUT_OUTCOMES = ['clean', 'melted', 'chip_out', 'fuzzy', 'broken'] as const
+export type CutOutcome = (typeof CUT_OUTCOMES)[number]
+
+export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
+
+export const LoadBody = z.object({
+  machineId: z.number({ error: 'choose a machine' }).int().positive(),
+})
+
+export const CutLogBody = z.object({
+  idempotencyKey: z.string().min(8, { error: 'must be 8 to 100 characters' }).max(100, { error: 'must be 8 to 100 characters' }),
+  materialId: z.number({ error: 'choose a material' }).int().positive(),
+  minutes: z.number({ error: 'enter the minutes cut' })
+    .gt(0, { error: 'must be more than 0' })
+    .max(1440, { error: 'must be at most 24 hours (1440 minutes)' }),
+  outcome: z.enum(CUT_OUTCOMES, { error: 'choose clean, melted, chip out, fuzzy or broken' }),
+  rpm: z.number().int({ error: 'must be a whole number' }).positive({ error: 'must be more than 0' }).max(100_000).nullish(),
+  feedMmPerMin: z.number().positive({ error: 'must be more than 0' }).max(1_000_000).nullish(),
+  note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
+  machineId: z.number().int().positive().nullish(),
+  // When the cut finished; a log sent late from the phone's queue keeps its real time.
+  cutAt: z.iso.datetime({ offset: true, error: 'must be an ISO date and time' }).optional(),
+})
+export type CutLogInput = z.input<typeof CutLogBody>
+
+export const FLAG_KINDS = ['dull', 'broken'] as const
+export const FlagFields = z.object({
+  kind: z.enum(FLAG_KINDS, { error: 'choose dull or broken' }),
+  note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
+})
+
+export const PHOTO_MAX_BYTES = 8 * 1024 * 1024
