@@ -1,21 +1,11 @@
 // The offline cut-log queue: a log is saved on the phone first, then sent, and kept until the
 // server has it. Framework-free (storage and sender are injected) so it runs in Node's tests.
 
-export type CutOutcome = 'clean' | 'melted' | 'chip_out' | 'fuzzy' | 'broken'
+import type { CutLogInput } from '../shared/schemas/spindle'
 
-/** The body of POST /api/cutters/:id/cuts. */
-export interface CutBody {
-  idempotencyKey: string
-  materialId: number
-  minutes: number
-  outcome: CutOutcome
-  rpm?: number
-  feedMmPerMin?: number
-  note?: string
-  machineId?: number
-  /** When the cut finished, so a log sent late keeps its real time. */
-  cutAt: string
-}
+/** The body of POST /api/cutters/:id/cuts, always with the time the cut finished, so a log
+ *  sent late keeps its real time. */
+export type CutBody = CutLogInput & { cutAt: string }
 
 export type QueuedState = 'waiting' | 'sending' | 'failed'
 

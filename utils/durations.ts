@@ -1,6 +1,4 @@
 // Durations as the operator reads and logs them: estimates in whole minutes, logs to a tenth.
-import { trimTrailingZeros } from './lengths'
-
 /** "45 min", "2 h 05 min"; whole minutes, since the figure is an estimate. */
 export function formatMinutes(minutes: number): string {
   const whole = Math.max(0, Math.round(minutes))
@@ -18,6 +16,10 @@ export function formatLoggedMinutes(minutes: number): string {
 /** The minutes a timer has run, to a tenth, at least 0.1 (the server wants more than zero). */
 export function timerMinutes(elapsedMs: number): number {
   return Math.max(0.1, Math.round(elapsedMs / 6_000) / 10)
+}
+
+function trimTrailingZeros(text: string): string {
+  return text.includes('.') ? text.replace(/\.?0+$/, '') : text
 }
 
 /** A running timer as a clock: "4:07", "1:02:30". */

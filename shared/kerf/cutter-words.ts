@@ -1,4 +1,6 @@
 // The plain words shown for a cutter's geometry and for the outcome of a cut. Pure.
+import type { CutOutcome } from '../schemas/spindle'
+
 export type Profile = 'square_end' | 'ball_nose' | 'v_bit' | 'o_flute'
 export type Helix = 'upcut' | 'downcut' | 'compression' | 'straight'
 export type ToolMaterial = 'solid_carbide' | 'carbide_tipped' | 'hss'
@@ -23,8 +25,6 @@ export const TOOL_MATERIAL_LABELS: Record<ToolMaterial, string> = {
   hss: 'HSS',
 }
 
-export const CUT_OUTCOMES = ['clean', 'melted', 'chip_out', 'fuzzy', 'broken'] as const
-export type CutOutcome = (typeof CUT_OUTCOMES)[number]
 
 /** The word on the button and what it means at the machine. */
 export const OUTCOME_WORDS: Record<CutOutcome, { label: string, hint: string }> = {

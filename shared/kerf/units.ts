@@ -29,3 +29,8 @@ export function toMm(value: number, unit: LengthUnit): number {
 
 /** Feed rates: mm/min to in/min. */
 export const mmPerMinToInPerMin = (v: number) => v / MM_PER_INCH
+
+/** A feed for display: "2000 mm/min" or "78.7 in/min". */
+export function formatFeed(mmPerMin: number, unit: LengthUnit): string {
+  return unit === 'in' ? `${mmPerMinToInPerMin(mmPerMin).toFixed(1)} in/min` : `${Number(mmPerMin.toFixed(1))} mm/min`
+}

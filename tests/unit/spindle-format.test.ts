@@ -1,7 +1,7 @@
 // How the spindle pages write lengths, feeds and durations. 1 in = 25.4 mm exactly (the
 // international inch of 1959, NIST Handbook 44 Appendix C).
 import { describe, expect, it } from 'vitest'
-import { feedInInchesPerMinute, formatLength } from '../../utils/lengths'
+import { formatFeed, formatLength } from '../../shared/kerf/units'
 import { formatElapsed, formatLoggedMinutes, formatMinutes, timerMinutes } from '../../utils/durations'
 
 describe('lengths and feeds', () => {
@@ -13,8 +13,9 @@ describe('lengths and feeds', () => {
   })
 
   it('turns a feed in mm/min into inches per minute', () => {
-    expect(feedInInchesPerMinute(2540)).toBe('100.0 in/min')
-    expect(feedInInchesPerMinute(2000)).toBe('78.7 in/min')
+    expect(formatFeed(2540, 'in')).toBe('100.0 in/min')
+    expect(formatFeed(2000, 'in')).toBe('78.7 in/min')
+    expect(formatFeed(2000, 'mm')).toBe('2000 mm/min')
   })
 })
 
