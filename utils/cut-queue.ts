@@ -59,6 +59,17 @@ export interface CutQueueOptions {
 /** Bump the version when QueuedCut changes shape; an old phone's queue is then migrated or read as empty. */
 export const CUT_QUEUE_STORAGE_KEY = 'kerfbook.cut-queue.v1'
 
+/** A fresh idempotency key. randomUUID exists only on secure (https or localhost) pages; a phone on
+ *  the shop's plain-HTTP network still has getRandomValues, so the same kind of key is built from it. */
+export function newIdempotencyKey(): string {
+  if (typeof crypto.randomUUID === 'function') return crypto.randomUUID()
+  const b = crypto.getRandomValues(new Uint8Array(16))
+  b[6] = (b[6]! & 0x0f) | 0x40 // version 4
+  b[8] = (b[8]! & 0x3f) | 0x80 // RFC 4122 variant
+  const hex = Array.from(b, (x) => x.toString(16).padStart(2, '0')).join('')
+  return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-${hex.slice(12, 16)}-${hex.slice(16, 20)}-${hex.slice(20)}`
+}
+
 export function isRetryableStatus(status: number): boolean {
   return status >= 500 || status === 408 || status === 429
 }
@@ -145,6 +156,9 @@ export function createCutQueue(options: CutQueueOptions) {
   function flush(): Promise<void> {
     if (running) return running
     running = (async () => {
+      // Yield once, so `running` is assigned before the loop can end and clear it: an empty
+      // queue would otherwise finish synchronously and leave a settled promise behind for good.
+      await null
       const tried = new Set<string>()
       try {
         for (;;) {

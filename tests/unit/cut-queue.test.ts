@@ -1,7 +1,7 @@
 // The offline cut-log queue keeps its promise: no log is lost on a dropped connection, and none
 // is counted twice. The fetch layer is a fake server whose network can fail and recover.
 import { describe, expect, it } from 'vitest'
-import { createCutQueue, createFetchSender, memoryStorage, type CutBody, type KeyValueStorage } from '../../utils/cut-queue'
+import { createCutQueue, createFetchSender, memoryStorage, newIdempotencyKey, type CutBody, type KeyValueStorage } from '../../utils/cut-queue'
 
 type Network = 'up' | 'down' | 'drops-answers' | 'server-error'
 
@@ -162,12 +162,22 @@ describe('the cut-log queue', () => {
     const storage = memoryStorage()
     const never = createCutQueue({ storage, send: () => new Promise(() => {}), currentOwner: () => 3 })
     void never.submit(aCut())
+    await new Promise((r) => setTimeout(r, 0))
     expect(never.items()[0]!.state).toBe('sending')
 
     const server = fakeServer()
     const after = queueOver(storage, server)
     expect(after.items()[0]!.state).toBe('waiting')
     await after.flush()
+    expect(server.logs.size).toBe(1)
+  })
+
+  it('a flush of an empty queue (as at page load) does not block the next log', async () => {
+    const server = fakeServer()
+    const queue = queueOver(memoryStorage(), server)
+    await queue.flush()
+    expect(queue.flushing).toBe(false)
+    expect((await queue.submit(aCut())).state).toBe('sent')
     expect(server.logs.size).toBe(1)
   })
 
@@ -204,6 +214,19 @@ describe('the cut-log queue', () => {
     expect(server.logs.size).toBe(0)
     await queueOver(storage, server, 3).flush()
     expect(server.logs.size).toBe(1)
+  })
+
+  it('makes version-4 keys even where randomUUID is missing (a plain-HTTP page on the shop network)', () => {
+    const original = crypto.randomUUID
+    try {
+      Object.defineProperty(crypto, 'randomUUID', { value: undefined, configurable: true })
+      const keys = new Set(Array.from({ length: 200 }, () => newIdempotencyKey()))
+      expect(keys.size).toBe(200)
+      // RFC 9562 section 5.4: version nibble 4, variant bits 10.
+      for (const key of keys) expect(key).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/)
+    } finally {
+      Object.defineProperty(crypto, 'randomUUID', { value: original, configurable: true })
+    }
   })
 
   it('reads an unreadable saved queue as empty instead of failing', () => {
