@@ -1,5 +1,5 @@
 // The plain words shown for a cutter's geometry and for the outcome of a cut. Pure.
-import type { CutOutcome } from '../schemas/spindle'
+import type { CutOutcome } from './spindle'
 
 export type Profile = 'square_end' | 'ball_nose' | 'v_bit' | 'o_flute'
 export type Helix = 'upcut' | 'downcut' | 'compression' | 'straight'

@@ -1,8 +1,9 @@
 // Inputs of the spindle routes, shared with the phone page's forms.
 import { z } from 'zod'
+import { CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES } from '../kerf/spindle'
 
-export const CUT_OUTCOMES = ['clean', 'melted', 'chip_out', 'fuzzy', 'broken'] as const
-export type CutOutcome = (typeof CUT_OUTCOMES)[number]
+export { CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES }
+export type { CutOutcome } from '../kerf/spindle'
 
 export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
@@ -26,10 +27,7 @@ export const CutLogBody = z.object({
 })
 export type CutLogInput = z.input<typeof CutLogBody>
 
-export const FLAG_KINDS = ['dull', 'broken'] as const
 export const FlagFields = z.object({
   kind: z.enum(FLAG_KINDS, { error: 'choose dull or broken' }),
   note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
 })
-
-export const PHOTO_MAX_BYTES = 8 * 1024 * 1024
