@@ -21,8 +21,10 @@ export interface SentCut { key: string, cutterId: number, cutterCode: string, da
 export const useCutQueueStore = defineStore('cutQueue', () => {
   const { user } = useUserSession()
   const all = ref<QueuedCut[]>([])
-  /** The last log the server took, for pages to refresh what they show. */
+  /** The last log the server took in the background, for pages to refresh what they show. */
   const lastSent = ref<SentCut | null>(null)
+  // Logs whose sender is waiting for the answer itself: their outcome is told to that caller.
+  const inHand = new Set<string>()
   let queue: CutQueue | null = null
   let timer: ReturnType<typeof setInterval> | null = null
 
@@ -55,7 +57,9 @@ export const useCutQueueStore = defineStore('cutQueue', () => {
         all.value = items
         keepTrying()
       },
-      onSent: (item, data) => { lastSent.value = { key: item.key, cutterId: item.cutterId, cutterCode: item.cutterCode, data } },
+      onSent: (item, data) => {
+        if (!inHand.has(item.key)) lastSent.value = { key: item.key, cutterId: item.cutterId, cutterCode: item.cutterCode, data }
+      },
     })
     all.value = queue.items()
     window.addEventListener('online', () => void queue?.flush())
@@ -85,10 +89,19 @@ export const useCutQueueStore = defineStore('cutQueue', () => {
   async function submit(cut: NewCut): Promise<SubmitResult> {
     const ownerId = user.value?.id
     if (!ownerId) throw new Error('Sign in to log a cut.')
-    return start().submit({ ...cut, ownerId })
+    return holding(cut.body.idempotencyKey, () => start().submit({ ...cut, ownerId }))
   }
 
-  const resubmit = (key: string, change?: { body: CutBody, materialName: string }) => start().resubmit(key, change)
+  async function holding<T>(key: string, send: () => Promise<T>): Promise<T> {
+    inHand.add(key)
+    try {
+      return await send()
+    } finally {
+      inHand.delete(key)
+    }
+  }
+
+  const resubmit = (key: string, change?: { body: CutBody, materialName: string }) => holding(key, () => start().resubmit(key, change))
   const discard = (key: string) => start().discard(key)
   const flush = () => start().flush()
 

@@ -8,6 +8,11 @@ export function formatMinutes(minutes: number): string {
   return m ? `${h} h ${String(m).padStart(2, '0')} min` : `${h} h`
 }
 
+/** A long total in whole hours ("44 h"), short enough for a small tile. */
+export function formatTotalTime(minutes: number): string {
+  return minutes < 60 ? `${Math.max(0, Math.round(minutes))} min` : `${Math.round(minutes / 60).toLocaleString('en')} h`
+}
+
 /** A logged duration as typed, without a trailing ".0": "12.5 min". */
 export function formatLoggedMinutes(minutes: number): string {
   return `${trimTrailingZeros(minutes.toFixed(1))} min`

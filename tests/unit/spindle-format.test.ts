@@ -2,7 +2,7 @@
 // international inch of 1959, NIST Handbook 44 Appendix C).
 import { describe, expect, it } from 'vitest'
 import { formatFeed, formatLength } from '../../shared/kerf/units'
-import { formatElapsed, formatLoggedMinutes, formatMinutes, timerMinutes } from '../../utils/durations'
+import { formatElapsed, formatLoggedMinutes, formatMinutes, formatTotalTime, timerMinutes } from '../../utils/durations'
 
 describe('lengths and feeds', () => {
   it('shows a quarter-inch bit as 6.35 mm or 0.250 in, as the reader prefers', () => {
@@ -25,6 +25,12 @@ describe('durations', () => {
     expect(formatMinutes(60)).toBe('1 h')
     expect(formatMinutes(312.4)).toBe('5 h 12 min')
     expect(formatMinutes(-3)).toBe('0 min')
+  })
+
+  it('writes a cutter\'s total cutting time in whole hours once past an hour', () => {
+    expect(formatTotalTime(45)).toBe('45 min')
+    expect(formatTotalTime(2638)).toBe('44 h')
+    expect(formatTotalTime(123_456)).toBe('2,058 h')
   })
 
   it('writes logged minutes as typed, without a trailing .0', () => {
