@@ -46,19 +46,28 @@ shops=$(node --import tsx -e "
   })")
 if [ "$shops" = 0 ]; then node --import tsx scripts/seed.ts; fi
 
+# Waits until a URL answers; fails when the process serving it has exited.
+wait_http() {
+  local url=$1 pid=$2 what=$3
+  for _ in $(seq 1 300); do
+    if ! kill -0 "$pid" 2>/dev/null; then echo "[start] the $what stopped at start-up (see above)" >&2; exit 1; fi
+    node -e "fetch(process.argv[1]).then(() => process.exit(0), () => process.exit(1))" "$url" && return 0
+    sleep 0.3
+  done
+  echo "[start] the $what did not answer at $url" >&2
+  exit 1
+}
+
 node --import tsx scripts/mail-catcher.ts &
 children+=($!)
+wait_http "http://127.0.0.1:$KERFBOOK_MAIL_WEB_PORT/messages.json" "$!" "mail catcher"
 
 echo "[build] building the app"
 npx nuxt build >.data/build.log 2>&1 || { tail -n 40 .data/build.log; exit 1; }
 
 node .output/server/index.mjs &
 children+=($!)
-node -e "
-  const url = process.argv[1]
-  const until = Date.now() + 30000
-  const poll = () => fetch(url).then(() => process.exit(0), () => Date.now() < until ? setTimeout(poll, 200) : process.exit(1))
-  poll()" "http://$HOST:$PORT/login"
+wait_http "http://$HOST:$PORT/login" "$!" "app"
 
 cat <<TXT
 

@@ -35,14 +35,6 @@ export async function sendMail(mail: OutgoingMail): Promise<void> {
   await transport.sendMail({ from, ...mail })
 }
 
-/** The public address of the app, for links in e-mail: configured, or taken from the request. */
-export function publicBaseUrl(event?: Parameters<typeof getRequestURL>[0]): string {
-  const configured = useRuntimeConfig().public.baseUrl
-  if (configured) return configured.replace(/\/$/, '')
-  if (event) return getRequestURL(event).origin
-  throw new Error('Set NUXT_PUBLIC_BASE_URL so that e-mail can link back to the app.')
-}
-
 /** Minimal HTML escaping for the e-mail templates. */
 export function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', '\'': '&#39;' })[c]!)

@@ -1,7 +1,10 @@
 // Reordering (DESIGN.md computation 3): demand in cutters per day from measured life
 // consumption, safety stock and reorder point over the lead time, and the economic order
 // quantity rounded up to the pack size. Pure: no framework or database imports.
-import { jStat } from 'jstat'
+import jstat from 'jstat'
+
+// jStat is CommonJS: Node's ESM loader only offers its default export.
+const { jStat } = jstat
 
 /** Service level → z, the standard normal quantile (e.g. 0.95 → 1.645). */
 export function serviceZ(serviceLevel: number): number {

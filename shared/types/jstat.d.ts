@@ -1,9 +1,12 @@
 // The small part of jStat that Kerfbook uses (the package ships no types).
 declare module 'jstat' {
-  export const jStat: {
-    normal: {
-      /** Quantile (inverse CDF) of the normal distribution. */
-      inv(p: number, mean: number, std: number): number
+  const jstat: {
+    jStat: {
+      normal: {
+        /** Quantile (inverse CDF) of the normal distribution. */
+        inv(p: number, mean: number, std: number): number
+      }
     }
   }
+  export default jstat
 }

@@ -42,6 +42,10 @@ export class Client {
   }
 
   get<T = any>(path: string) { return this.request<T>('GET', path) }
+  /** The raw response, for images and downloads, sent with this client's session. */
+  raw(path: string): Promise<Response> {
+    return fetch(baseUrl() + path, { redirect: 'manual', headers: this.cookie ? { cookie: this.cookie } : {} })
+  }
   post<T = any>(path: string, body?: unknown, headers?: Record<string, string>) { return this.request<T>('POST', path, body ?? {}, headers) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body ?? {}) }
 

@@ -3,7 +3,7 @@
 import { z } from 'zod'
 import { UserUpdateBody } from '#shared/schemas/auth'
 
-const Params = z.object({ id: z.coerce.number().int().positive() })
+const Params = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
 export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')

@@ -1,0 +1,43 @@
+// Inputs of purchase orders and deliveries, shared by the crib's forms and routes.
+import { z } from 'zod'
+
+const Id = z.number().int().positive()
+const Quantity = z.number({ error: 'enter a quantity' }).int({ error: 'must be a whole number' }).positive({ error: 'must be at least 1' }).max(10_000)
+
+export const OrderIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
+
+export const OrderLineInput = z.object({
+  typeId: Id,
+  quantity: Quantity,
+  unitCostCents: z.number().int().min(0).max(100_000_000).optional(),
+})
+
+export const NewOrderBody = z.object({
+  supplierId: Id,
+  lines: z.array(OrderLineInput).min(1, { error: 'add at least one line' }).max(200),
+  note: z.string().trim().max(2000).optional(),
+})
+
+export const FromSuggestionsBody = z.object({
+  typeIds: z.array(Id).min(1, { error: 'choose at least one cutter type' }).max(500),
+})
+
+export const OrderUpdateBody = z.object({
+  lines: z.array(OrderLineInput).min(1, { error: 'an order needs at least one line; cancel it instead' }).max(200).optional(),
+  note: z.string().trim().max(2000).optional(),
+})
+
+export const ReceiveOrderBody = z.object({
+  lines: z.array(z.object({
+    lineId: Id,
+    quantity: z.number().int().min(0).max(10_000),
+    diameterMm: z.number().positive().max(200).optional(),
+  })).min(1).max(200),
+})
+
+export const DeliveryBody = z.object({
+  typeId: z.number({ error: 'choose a cutter type' }).int().positive(),
+  quantity: Quantity.max(500, { error: 'at most 500 at once' }),
+  diameterMm: z.number().positive().max(200).optional(),
+  note: z.string().trim().max(2000).optional(),
+})
