@@ -43,6 +43,9 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: true },
+    // Checked every five minutes; each shop's own time zone and report time decide (and the
+    // per-day record makes extra runs harmless).
+    scheduledTasks: { '*/5 * * * *': ['report:nightly'] },
   },
   typescript: { strict: true },
   eslint: { config: { stylistic: false } },

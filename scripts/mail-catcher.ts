@@ -30,6 +30,8 @@ const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&l
 export async function startMailCatcher(opts: { smtpPort: number, httpPort: number, dir?: string, host?: string }): Promise<MailCatcher> {
   const host = opts.host ?? '127.0.0.1'
   const messages: CaughtMail[] = []
+  // Tests can make the next few deliveries fail, as a real relay sometimes does.
+  let failNext = 0
   if (opts.dir) await mkdir(opts.dir, { recursive: true })
 
   const smtp = new SMTPServer({
@@ -38,6 +40,12 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
     disabledCommands: ['STARTTLS'],
     logger: false,
     onData(stream, session, callback) {
+      if (failNext > 0) {
+        failNext--
+        stream.resume()
+        stream.on('end', () => callback(Object.assign(new Error('Temporary failure, try again later'), { responseCode: 451 })))
+        return
+      }
       const chunks: Buffer[] = []
       stream.on('data', (c: Buffer) => chunks.push(c))
       stream.on('end', async () => {
@@ -68,6 +76,9 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
     if (url.pathname === '/messages.json') {
       res.writeHead(200, { 'content-type': 'application/json' })
       res.end(JSON.stringify(messages))
+    } else if (url.pathname === '/fail-next' && req.method === 'POST') {
+      failNext = Number(url.searchParams.get('count') ?? 1)
+      res.writeHead(204).end()
     } else if (url.pathname === '/clear' && req.method === 'POST') {
       messages.length = 0
       res.writeHead(204).end()
