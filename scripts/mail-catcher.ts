@@ -30,8 +30,8 @@ const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&l
 export async function startMailCatcher(opts: { smtpPort: number, httpPort: number, dir?: string, host?: string }): Promise<MailCatcher> {
   const host = opts.host ?? '127.0.0.1'
   const messages: CaughtMail[] = []
-  // Tests can make the next few deliveries fail, as a real relay sometimes does.
-  let failNext = 0
+  // Tests can make the next few deliveries to one address fail, as a real relay sometimes does.
+  const failNext = new Map<string, number>()
   if (opts.dir) await mkdir(opts.dir, { recursive: true })
 
   const smtp = new SMTPServer({
@@ -40,8 +40,9 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
     disabledCommands: ['STARTTLS'],
     logger: false,
     onData(stream, session, callback) {
-      if (failNext > 0) {
-        failNext--
+      const doomed = session.envelope.rcptTo.map((r) => r.address).find((a) => (failNext.get(a) ?? 0) > 0)
+      if (doomed) {
+        failNext.set(doomed, failNext.get(doomed)! - 1)
         stream.resume()
         stream.on('end', () => callback(Object.assign(new Error('Temporary failure, try again later'), { responseCode: 451 })))
         return
@@ -77,7 +78,7 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
       res.writeHead(200, { 'content-type': 'application/json' })
       res.end(JSON.stringify(messages))
     } else if (url.pathname === '/fail-next' && req.method === 'POST') {
-      failNext = Number(url.searchParams.get('count') ?? 1)
+      failNext.set(url.searchParams.get('to') ?? '', Number(url.searchParams.get('count') ?? 1))
       res.writeHead(204).end()
     } else if (url.pathname === '/clear' && req.method === 'POST') {
       messages.length = 0
