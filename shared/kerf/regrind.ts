@@ -56,3 +56,13 @@ export function receiptSentence(verdict: ReceiptVerdict): string {
   if (verdict.cause === 'regrinds_exceeded') return 'More regrinds than this type allows: it will be retired.'
   return 'Reground: back in the crib with a fresh life.'
 }
+
+/** A resharpening batch: drafted, sent out, received back, or cancelled before sending. */
+export const BATCH_STATUSES = ['draft', 'sent', 'received', 'cancelled'] as const
+export type BatchStatus = (typeof BATCH_STATUSES)[number]
+export const BATCH_STATUS_LABELS: Record<BatchStatus, string> = {
+  draft: 'Draft',
+  sent: 'At the regrinder',
+  received: 'Received back',
+  cancelled: 'Cancelled',
+}
