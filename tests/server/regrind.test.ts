@@ -193,6 +193,18 @@ describe('one batch at a time', () => {
     expect(refused.body.message).toContain(`${gone!.code} is retired`)
   })
 
+  it('a draft can change supplier and note; without a supplier address nothing is e-mailed, and the send says so', async () => {
+    const [c] = await fx.add([{ lifeUsed: 0.95 }])
+    const batchId = (await draft(shop.crib, [c!.id])).body.batch.id
+    const edited = await shop.crib.patch(`/api/regrind/batches/${batchId}`, { supplierId: null, note: 'rush job' })
+    expect(edited.body.batch).toMatchObject({ supplier: null, note: 'rush job' })
+    const res = await send(shop.crib, batchId, { emailSupplier: true })
+    expect(res.status).toBe(200)
+    expect(res.body.mail).toMatchObject({ sent: false, problem: expect.stringMatching(/no e-mail address/) })
+    expect((await shop.crib.patch(`/api/regrind/batches/${batchId}`, { note: 'too late' })).status).toBe(409)
+    expect((await shop.crib.post(`/api/regrind/batches/${batchId}/cancel`)).body.message).toMatch(/Receive it back instead/)
+  })
+
   it('a receipt must name every cutter of the batch, each once', async () => {
     const [c, d] = await fx.add([{ lifeUsed: 0.95 }, { lifeUsed: 0.95 }])
     const batchId = (await draft(shop.crib, [c!.id, d!.id])).body.batch.id
