@@ -8,15 +8,17 @@ import type { RegrindBatchView } from './regrind-view'
 export function regrindBatchMail(m: {
   to: string, shopName: string, supplierName: string, sender: { name: string, email: string }, batch: RegrindBatchView
 }): OutgoingMail {
+  const n = m.batch.items.length
+  const bits = `${n} router bit${n === 1 ? '' : 's'}`
   const lines = m.batch.items.map((i) => `${i.code}  ${i.typeName}  ${i.diameterBeforeMm.toFixed(3)} mm`)
-  const intro = `Hello ${m.supplierName}, ${m.shopName} is sending you ${m.batch.items.length} router bit${m.batch.items.length === 1 ? '' : 's'} to resharpen (batch ${m.batch.id}).`
+  const intro = `Hello ${m.supplierName}, ${m.shopName} is sending you ${bits} to resharpen (batch ${m.batch.id}).`
   const outro = `Questions to ${m.sender.name}, ${m.sender.email}. Please keep the label on each bit so it can be matched on its return.`
   const note = m.batch.note ? [`Note: ${m.batch.note}`] : []
   const rows = m.batch.items.map((i) => `<tr><td style="padding:4px 12px 4px 0;font-family:monospace;font-weight:bold">${escapeHtml(i.code)}</td>`
     + `<td style="padding:4px 12px 4px 0">${escapeHtml(i.typeName)}</td><td style="padding:4px 0;text-align:right">${i.diameterBeforeMm.toFixed(3)} mm</td></tr>`).join('')
   return {
     to: m.to,
-    subject: `Resharpening: ${m.batch.items.length} bits from ${m.shopName} (batch ${m.batch.id})`,
+    subject: `Resharpening: ${bits} from ${m.shopName} (batch ${m.batch.id})`,
     text: [intro, ...note, 'Label code, type, diameter as sent:', lines.join('\n'), outro].join('\n\n') + '\n',
     html: `<!doctype html><html><body style="margin:0;background:#f6f4ee;font-family:Arial,sans-serif;color:#15191c">
 <div style="max-width:620px;margin:0 auto;padding:24px">
