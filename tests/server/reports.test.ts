@@ -1,7 +1,7 @@
 // The morning tooling report goes out exactly once per shop and local day, retries a failing
 // mail server without sending twice, and says what the crib's pages say.
 import { randomUUID } from 'node:crypto'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { appDb } from '../support/db'
 import { caughtMail, Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
