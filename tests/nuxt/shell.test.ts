@@ -10,7 +10,8 @@ describe('navigation', () => {
   it('shows the team page to owners only', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
-    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/account'])
+    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/account'])
+    expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/crib', '/reports', '/account'])
     expect(navigationFor(undefined)).toEqual([])
   })
 })
