@@ -4,9 +4,11 @@ import { inToMm, type LengthUnit } from './units'
 
 const DECIMAL = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)$/
 
+/** Rounds half up in decimal: 4.7625 to 4.763, where 4.7625 * 1000 is 4762.4999... in binary. */
 export function roundTo(value: number, decimals: number): number {
-  const f = 10 ** decimals
-  return Math.round(value * f) / f
+  const text = String(value)
+  if (text.includes('e')) return Math.round(value * 10 ** decimals) / 10 ** decimals
+  return Number(`${Math.round(Number(`${text}e${decimals}`))}e-${decimals}`)
 }
 
 export function parseDecimal(text: string): number | undefined {
@@ -28,7 +30,9 @@ function parseInches(text: string): number | undefined {
 /** A length typed in the person's unit, in millimetres to the database's 0.001 mm. */
 export function parseLength(text: string, unit: LengthUnit): number | undefined {
   const value = unit === 'in' ? parseInches(text) : parseDecimal(text.trim().replace(/\s*mm$/i, ''))
-  return value === undefined ? undefined : roundTo(unit === 'in' ? inToMm(value) : value, 3)
+  if (value === undefined) return undefined
+  // 3/16 in is 4.7625 mm, which the multiplication leaves as 4.76249999...: clear that noise first.
+  return roundTo(roundTo(unit === 'in' ? inToMm(value) : value, 9), 3)
 }
 
 /** A length in mm shown for typing in the person's unit: 6.35 → "0.25" in inches, "6.35" in mm. */

@@ -1,11 +1,11 @@
 // Lengths, percentages and service levels as people type them.
 import { describe, expect, it } from 'vitest'
-import { lengthText, parseDecimal, parseLength, parsePercent, parseServiceLevel } from '../../shared/kerf/numbers'
+import { lengthText, parseDecimal, parseLength, parsePercent, parseServiceLevel, roundTo } from '../../shared/kerf/numbers'
 
 describe('lengths typed in the person\'s unit, in millimetres', () => {
   // 25.4 mm per inch exactly (international yard and pound agreement, 1959).
   it.each([
-    ['0.25', 6.35], ['1/4', 6.35], ['1/4"', 6.35], ['1 1/4', 31.75], ['1-1/2 in', 38.1], ['3/8', 9.525], ['1/8', 3.175], ['.5', 12.7],
+    ['0.25', 6.35], ['1/4', 6.35], ['1/4"', 6.35], ['1 1/4', 31.75], ['1-1/2 in', 38.1], ['3/8', 9.525], ['1/8', 3.175], ['.5', 12.7], ['3/16', 4.763], ['5/32', 3.969],
   ])('%s in is %f mm', (text, mm) => {
     expect(parseLength(text, 'in')).toBe(mm)
   })
@@ -14,6 +14,9 @@ describe('lengths typed in the person\'s unit, in millimetres', () => {
     expect(parseLength('6.35', 'mm')).toBe(6.35)
     expect(parseLength('6.35 mm', 'mm')).toBe(6.35)
     expect(parseLength('6.12345', 'mm')).toBe(6.123)
+    // Half up in decimal, not in binary: 4.7625 * 1000 is 4762.4999... as a double.
+    expect(parseLength('4.7625', 'mm')).toBe(4.763)
+    expect(roundTo(1e-7, 3)).toBe(0)
   })
 
   it.each(['', 'abc', '1/0', '1/4', '6,35'])('refuses "%s" in mm', (text) => {
