@@ -63,6 +63,9 @@ describe('cutter types', () => {
     expect((await shop.crib.get('/api/cutter-types')).body.map((t: { id: number }) => t.id)).not.toContain(type.id)
     expect((await shop.crib.get('/api/cutter-types?archived=include')).body.map((t: { id: number }) => t.id)).toContain(type.id)
     expect((await shop.crib.patch(`/api/cutter-types/${type.id}`, { active: true })).body.active).toBe(true)
+    const nothing = await shop.crib.patch(`/api/cutter-types/${type.id}`, {})
+    expect(nothing.status).toBe(200)
+    expect(nothing.body.unitCostCents).toBe(4250)
   })
 
   it('a V-bit keeps its angle, and choosing another profile takes the angle away', async () => {

@@ -24,8 +24,9 @@ export default defineEventHandler(async (event) => {
     const columns = cutterTypeColumns(body)
     // Choosing another profile than V-bit takes the angle away with it.
     if (body.profile && body.profile !== 'v_bit' && body.vAngleDeg === undefined) columns.v_angle_deg = null
-    await withUniqueName('cutter_types', () => tx.updateTable('cutter_types')
-      .set({ ...columns, ...(body.active !== undefined && { active: body.active }) })
+    const changes = { ...columns, active: body.active }
+    if (Object.values(changes).every((v) => v === undefined)) return // nothing to change: no empty UPDATE
+    await withUniqueName('cutter_types', () => tx.updateTable('cutter_types').set(changes)
       .where('shop_id', '=', user.shopId).where('id', '=', id)
       .execute())
   })
