@@ -1,6 +1,6 @@
 // The morning tooling report: what to order, what to send out for resharpening and what to
 // retire, built from the same code as the crib's reorder and resharpening pages.
-import { formatMoney } from '#shared/kerf/money'
+import { showMoney } from '#shared/kerf/money'
 import type { Queryable } from '../db/connect'
 import type { OutgoingMail } from './mail'
 
@@ -36,7 +36,7 @@ export async function buildToolingReport(db: Queryable, shopId: number, opts: { 
   if (order.length) {
     text.push(`ORDER (${order.length}) - ${base}/crib/reorder`)
     for (const r of order) {
-      text.push(`- ${r.suggestedQty} x ${r.typeName} from ${r.supplierName ?? 'no supplier set'} (${formatMoney(r.suggestedQty * r.unitCostCents)}): `
+      text.push(`- ${r.suggestedQty} x ${r.typeName} from ${r.supplierName ?? 'no supplier set'} (${showMoney(r.suggestedQty * r.unitCostCents)}): `
         + `${r.available} in stock + ${r.onOrder} on order is at or below the reorder point ${r.reorderPoint.toFixed(1)}`)
     }
     text.push('')
@@ -68,7 +68,7 @@ ${rows.map((r) => `<tr>${r.map((cell) => `<td style="${td}">${cell}</td>`).join(
 <p style="margin:0 0 8px;color:#3b4349">${escapeHtml(shop.name)}</p>
 ${isEmpty ? '<p style="font-size:17px">Nothing to order, resharpen or retire today.</p>' : ''}
 ${section(`Order (${order.length})`, `${base}/crib/reorder`, ['Cutter type', 'Supplier', 'Order', 'Why'], order.map((r) => [
-  escapeHtml(r.typeName), escapeHtml(r.supplierName ?? 'no supplier set'), `<strong>${r.suggestedQty}</strong><br>${formatMoney(r.suggestedQty * r.unitCostCents)}`,
+  escapeHtml(r.typeName), escapeHtml(r.supplierName ?? 'no supplier set'), `<strong>${r.suggestedQty}</strong><br>${showMoney(r.suggestedQty * r.unitCostCents)}`,
   `${r.available} in stock + ${r.onOrder} on order, reorder point ${r.reorderPoint.toFixed(1)} (${r.dailyDemand.toFixed(2)} a day over ${r.leadTimeDays} days' lead time)`,
 ]))}
 ${section(`Send out for resharpening (${resharpen.length})`, `${base}/crib/regrind`, ['Cutter', 'Where', 'Why'], resharpen.map((c) => [
