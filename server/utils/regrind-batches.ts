@@ -2,7 +2,7 @@
 // draft under their row locks so that no cutter ever sits in two open batches.
 import { dueReason, retireCause, DUE_STATUSES } from '#shared/kerf/due'
 import { retireSentence, type BatchStatus } from '#shared/kerf/regrind'
-import type { Tx } from '../db/connect'
+import type { Queryable, Tx } from '../db/connect'
 
 /** The batch's row, locked until the transaction ends; 404 when it is not in the shop. */
 export async function lockRegrindBatch(tx: Tx, shopId: number, id: number) {
@@ -103,8 +103,8 @@ export async function addBatchItems(tx: Tx, shopId: number, batchId: number, cut
 }
 
 /** A supplier of the shop, or a 400 naming the field. */
-export async function requireSupplier(tx: Tx, shopId: number, supplierId: number) {
-  const supplier = await tx.selectFrom('suppliers').select(['id', 'name', 'email'])
+export async function supplierForField(db: Queryable, shopId: number, supplierId: number) {
+  const supplier = await db.selectFrom('suppliers').select(['id', 'name', 'email'])
     .where('shop_id', '=', shopId).where('id', '=', supplierId).executeTakeFirst()
   if (!supplier) {
     throw createError({ statusCode: 400, statusMessage: 'supplierId: no such supplier in your shop', data: { fields: { supplierId: 'no such supplier in your shop' } } })
