@@ -53,12 +53,37 @@ const SORT_COLUMNS: Record<InventorySortField, Expression<unknown>> = {
   updatedAt: sql.ref('c.updated_at'),
 }
 
+/** ORDER BY for the page: the chosen column, then the id so that pages are stable among equals.
+ *  Only the machine can be null (cutters without one sort last both ways); elsewhere a plain
+ *  direction lets the (shop_id, life_used desc) and (shop_id, code) indexes serve. */
+function orderTerms(f: InventoryFilter) {
+  const column = SORT_COLUMNS[f.sort.field]
+  const dir = f.sort.desc ? 'desc' : 'asc'
+  return [
+    sql`${column} ${sql.raw(dir)}${sql.raw(f.sort.field === 'machine' ? ' nulls last' : '')}`,
+    sql`c.id ${sql.raw(dir)}`,
+  ] as const
+}
+
 export async function listInventory(db: Queryable, shopId: number, f: InventoryFilter) {
   const shop = await db.selectFrom('shops').select(['life_threshold']).where('id', '=', shopId).executeTakeFirstOrThrow()
   const threshold = shop.life_threshold
-  const column = SORT_COLUMNS[f.sort.field]
+  const order = orderTerms(f)
+
+  // The page's ids are found on narrow rows (id and sort key), joined only where the sort needs
+  // it; the 50 wide rows are read after. Deep pages then sort in memory instead of on disk.
+  let ids = filtered(db, shopId, f, threshold)
+  // The joins add only the sort key's table; the cast keeps the filtered builder's type.
+  if (f.sort.field === 'type') {
+    ids = ids.innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id')) as unknown as typeof ids
+  }
+  if (f.sort.field === 'machine') {
+    ids = ids.leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'c.machine_id').onRef('m.shop_id', '=', 'c.shop_id')) as unknown as typeof ids
+  }
+  const pageIds = ids.select('c.id').orderBy(order[0]).orderBy(order[1]).limit(f.pageSize).offset((f.page - 1) * f.pageSize)
+
   const [rows, count] = await Promise.all([
-    filtered(db, shopId, f, threshold)
+    db.selectFrom('cutters as c')
       .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
       .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'c.machine_id').onRef('m.shop_id', '=', 'c.shop_id'))
       .select([
@@ -66,15 +91,9 @@ export async function listInventory(db: Queryable, shopId: number, f: InventoryF
         'c.diameter_mm', 'c.flagged', 'c.retired_reason', 'c.received_at', 'c.updated_at',
         't.name as type_name', 't.max_regrinds', 't.regrind_diameter_loss_mm', 't.min_usable_diameter_mm', 'm.name as machine_name',
       ])
-      // Only the machine can be null: cutters without one sort last both ways. Elsewhere a plain
-      // direction lets the (shop_id, life_used desc) index serve. The id keeps pages stable among equals.
-      .orderBy(column, (ob) => {
-        const dir = f.sort.desc ? ob.desc() : ob.asc()
-        return f.sort.field === 'machine' ? dir.nullsLast() : dir
-      })
-      .orderBy('c.id', f.sort.desc ? 'desc' : 'asc')
-      .limit(f.pageSize)
-      .offset((f.page - 1) * f.pageSize)
+      .where('c.shop_id', '=', shopId)
+      .where('c.id', 'in', pageIds)
+      .orderBy(order[0]).orderBy(order[1])
       .execute(),
     filtered(db, shopId, f, threshold)
       .select((eb) => eb.fn.countAll<number>().as('n'))
