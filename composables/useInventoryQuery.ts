@@ -98,6 +98,13 @@ export function useInventoryQuery() {
     },
   })
 
+  /** After a page past the end (an old link, or rows gone since), go to the last page in place. */
+  function lastPage(last: number) {
+    replaceNext = true
+    typing = false
+    state.page = Math.max(1, last)
+  }
+
   const filtered = computed(() => Boolean(state.status.length || state.typeId || state.machineId || state.life || state.q.trim()))
   function clear() {
     filter({ status: [], typeId: '', machineId: '', life: '', q: '' })
@@ -115,5 +122,5 @@ export function useInventoryQuery() {
     pageSize: INVENTORY_PAGE_SIZE,
   }))
 
-  return { state, filter, sorting, page, filtered, clear, apiQuery }
+  return { state, filter, sorting, page, lastPage, filtered, clear, apiQuery }
 }
