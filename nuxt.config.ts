@@ -31,6 +31,9 @@ export default defineNuxtConfig({
     databasePoolSize: 10,
     smtp: { host: '', port: 0, secure: false, user: '', pass: '', from: '' },
     trustProxy: false,
+    // A secret that lets a scheduler outside the app run the nightly report by hand
+    // (POST /api/tasks/report-nightly with "Authorization: Bearer <token>"); empty turns it off.
+    taskToken: '',
     // Photos and CSV uploads: local disk by default, an S3-compatible bucket with driver 's3'.
     uploads: {
       driver: 'fs',
@@ -43,6 +46,9 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: true },
+    // Checked every five minutes; each shop's own time zone and report time decide (and the
+    // per-day record makes extra runs harmless).
+    scheduledTasks: { '*/5 * * * *': ['report:nightly'] },
   },
   typescript: { strict: true },
   eslint: { config: { stylistic: false } },

@@ -1,13 +1,18 @@
-// The navigation of the shell, filtered by the signed-in role.
+// The navigation of the shell, filtered by the signed-in role. Items marked `phone` also sit in
+// the bottom tab bar; the rest are reached from the Account page on a phone.
 import { roleAtLeast, type Role } from '#shared/kerf/roles'
 
-export interface NavItem { to: string, label: string, icon: 'home' | 'scan' | 'people' | 'account', role: Role }
+export type NavIconName = 'home' | 'scan' | 'crib' | 'report' | 'people' | 'settings' | 'account'
+export interface NavItem { to: string, label: string, icon: NavIconName, role: Role, phone: boolean }
 
 const ITEMS: NavItem[] = [
-  { to: '/', label: 'Home', icon: 'home', role: 'operator' },
-  { to: '/scan', label: 'Scan', icon: 'scan', role: 'operator' },
-  { to: '/team', label: 'Team', icon: 'people', role: 'owner' },
-  { to: '/account', label: 'Account', icon: 'account', role: 'operator' },
+  { to: '/', label: 'Home', icon: 'home', role: 'operator', phone: true },
+  { to: '/scan', label: 'Scan', icon: 'scan', role: 'operator', phone: true },
+  { to: '/crib', label: 'Crib', icon: 'crib', role: 'crib_manager', phone: true },
+  { to: '/reports', label: 'Reports', icon: 'report', role: 'crib_manager', phone: false },
+  { to: '/team', label: 'Team', icon: 'people', role: 'owner', phone: false },
+  { to: '/settings', label: 'Settings', icon: 'settings', role: 'owner', phone: false },
+  { to: '/account', label: 'Account', icon: 'account', role: 'operator', phone: true },
 ]
 
 export function navigationFor(role: Role | undefined): NavItem[] {

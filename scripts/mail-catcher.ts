@@ -30,6 +30,8 @@ const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&l
 export async function startMailCatcher(opts: { smtpPort: number, httpPort: number, dir?: string, host?: string }): Promise<MailCatcher> {
   const host = opts.host ?? '127.0.0.1'
   const messages: CaughtMail[] = []
+  // Tests can make the next few deliveries to one address fail, as a real relay sometimes does.
+  const failNext = new Map<string, number>()
   if (opts.dir) await mkdir(opts.dir, { recursive: true })
 
   const smtp = new SMTPServer({
@@ -38,6 +40,13 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
     disabledCommands: ['STARTTLS'],
     logger: false,
     onData(stream, session, callback) {
+      const doomed = session.envelope.rcptTo.map((r) => r.address).find((a) => (failNext.get(a) ?? 0) > 0)
+      if (doomed) {
+        failNext.set(doomed, failNext.get(doomed)! - 1)
+        stream.resume()
+        stream.on('end', () => callback(Object.assign(new Error('Temporary failure, try again later'), { responseCode: 451 })))
+        return
+      }
       const chunks: Buffer[] = []
       stream.on('data', (c: Buffer) => chunks.push(c))
       stream.on('end', async () => {
@@ -68,6 +77,9 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
     if (url.pathname === '/messages.json') {
       res.writeHead(200, { 'content-type': 'application/json' })
       res.end(JSON.stringify(messages))
+    } else if (url.pathname === '/fail-next' && req.method === 'POST') {
+      failNext.set(url.searchParams.get('to') ?? '', Number(url.searchParams.get('count') ?? 1))
+      res.writeHead(204).end()
     } else if (url.pathname === '/clear' && req.method === 'POST') {
       messages.length = 0
       res.writeHead(204).end()

@@ -12,6 +12,9 @@ touch .env
 if ! grep -q '^NUXT_SESSION_PASSWORD=' .env; then
   echo "NUXT_SESSION_PASSWORD=$(node -e 'console.log(require("crypto").randomBytes(32).toString("hex"))')" >> .env
 fi
+if ! grep -q '^NUXT_TASK_TOKEN=' .env; then
+  echo "NUXT_TASK_TOKEN=$(node -e 'console.log(require("crypto").randomBytes(24).toString("hex"))')" >> .env
+fi
 set -a; . ./.env; set +a
 
 export KERFBOOK_PG_PORT=${KERFBOOK_PG_PORT:-55432}
@@ -77,6 +80,7 @@ cat <<TXT
     crib@example.com        crib manager
     operator@example.com    operator (also operator2@ and operator3@)
   Caught e-mail:            http://127.0.0.1:$KERFBOOK_MAIL_WEB_PORT/  (and .eml files in $KERFBOOK_MAIL_DIR)
+  Nightly report by hand:   npm run report:nightly
   Stop with Ctrl-C.
 
 TXT

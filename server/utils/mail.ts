@@ -9,6 +9,8 @@ export interface OutgoingMail {
   subject: string
   text: string
   html: string
+  /** A fixed Message-ID lets mail systems drop a copy sent twice. */
+  messageId?: string
 }
 
 function useTransport(): { transport: Transporter, from: string } {

@@ -29,9 +29,16 @@ export function dueReason(cutter: CutterForDue, lifeThreshold: number): DueReaso
   return null
 }
 
+/** Why one more regrind is not allowed ('regrinds_used_up' or 'too_small'), or null when it is. */
+export type RetireCause = 'regrinds_used_up' | 'too_small'
+export function retireCause(cutter: CutterForDue, type: TypeForDue): RetireCause | null {
+  if (cutter.regrindCount >= type.maxRegrinds) return 'regrinds_used_up'
+  const diameterAfter = cutter.diameterMm - type.regrindDiameterLossMm
+  if (diameterAfter < type.minUsableDiameterMm - 1e-9) return 'too_small'
+  return null
+}
+
 /** Resharpen while another regrind is allowed and leaves the diameter usable; otherwise retire. */
 export function dueAction(cutter: CutterForDue, type: TypeForDue): DueAction {
-  const diameterAfter = cutter.diameterMm - type.regrindDiameterLossMm
-  const canRegrind = cutter.regrindCount < type.maxRegrinds && diameterAfter >= type.minUsableDiameterMm - 1e-9
-  return canRegrind ? 'resharpen' : 'retire'
+  return retireCause(cutter, type) ? 'retire' : 'resharpen'
 }

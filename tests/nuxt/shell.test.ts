@@ -15,6 +15,7 @@ describe('navigation', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
     expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/account'])
+    expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/crib', '/reports', '/account'])
     expect(navigationFor(undefined)).toEqual([])
   })
 })

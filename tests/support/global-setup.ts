@@ -11,6 +11,8 @@ const APP_PORT = Number(process.env.KERFBOOK_TEST_APP_PORT ?? 3311)
 const SMTP_PORT = Number(process.env.KERFBOOK_TEST_SMTP_PORT ?? 2626)
 const MAIL_WEB_PORT = Number(process.env.KERFBOOK_TEST_MAIL_WEB_PORT ?? 2680)
 
+const TASK_TOKEN = 'test-task-token-0123456789'
+
 let server: ChildProcess | undefined
 let catcher: MailCatcher | undefined
 
@@ -38,6 +40,7 @@ export async function setup() {
       NUXT_PUBLIC_BASE_URL: baseUrl,
       // Lets the throttling tests speak for other addresses; nothing else sends the header.
       NUXT_TRUST_PROXY: 'true',
+      NUXT_TASK_TOKEN: TASK_TOKEN,
     },
     stdio: ['ignore', 'inherit', 'inherit'],
   })
@@ -46,6 +49,7 @@ export async function setup() {
   process.env.KERFBOOK_TEST_URL = baseUrl
   process.env.KERFBOOK_TEST_DATABASE_URL = databaseUrl
   process.env.KERFBOOK_TEST_MAIL_URL = `http://127.0.0.1:${MAIL_WEB_PORT}`
+  process.env.KERFBOOK_TEST_TASK_TOKEN = TASK_TOKEN
 }
 
 export async function teardown() {

@@ -15,6 +15,7 @@ export interface SuppliersTable {
   phone: string | null
   lead_time_days: Generated<number>
   note: Generated<string>
+  active: Generated<boolean>
   created_at: Stamp
 }
 

@@ -1,0 +1,40 @@
+// The crib's resharpening data: the due list (with the suppliers a batch can go to) and the
+// batches, each fetched under one key so every component on the page shares and refreshes it.
+import type { InternalApi } from 'nitropack/types'
+
+export type RegrindDue = InternalApi['/api/regrind/due']['get']
+export type RegrindDueCutter = RegrindDue['cutters'][number]
+export type RegrindBatchSummary = InternalApi['/api/regrind/batches']['get'][number]
+export type RegrindBatch = InternalApi['/api/regrind/batches/:id']['get']
+export type RegrindBatchItem = RegrindBatch['items'][number]
+
+export function useRegrindDue() {
+  return useFetch('/api/regrind/due', { key: 'regrind-due' })
+}
+
+export function useRegrindBatches() {
+  return useFetch('/api/regrind/batches', { key: 'regrind-batches', default: () => [] })
+}
+
+export function useRegrindBatch(id: MaybeRefOrGetter<number>) {
+  return useFetch(() => `/api/regrind/batches/${toValue(id)}`, { key: `regrind-batch-${toValue(id)}` })
+}
+
+/** After any change to a batch: the due list, the batch list and that batch. */
+export async function refreshRegrind(batchId?: number) {
+  await refreshNuxtData(['regrind-due', 'regrind-batches', ...(batchId ? [`regrind-batch-${batchId}`] : [])])
+}
+
+/** Money is kept in cents and shown with two decimals. */
+export const centsText = (cents: number | null | undefined) => (cents === null || cents === undefined ? '—' : (cents / 100).toFixed(2))
+
+/** "12.5" → 1250; undefined for anything that is not a non-negative amount. */
+export function parseCents(text: string): number | undefined {
+  const value = Number(text.trim().replace(',', '.'))
+  return text.trim() !== '' && Number.isFinite(value) && value >= 0 ? Math.round(value * 100) : undefined
+}
+
+/** A day as YYYY-MM-DD (UTC), the same on the server and in the browser. */
+export const dayText = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—')
+
+export const pctText = (fraction: number) => `${Math.round(fraction * 100)} %`

@@ -1,0 +1,28 @@
+// Clear a dull flag set by mistake, so the cutter is no longer due for resharpening on its account.
+// A broken flag stays: the cutter was retired with it.
+import { NoteBody } from '#shared/schemas/inventory'
+import { CutterIdParams } from '#shared/schemas/spindle'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'crib_manager')
+  const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
+  const { note } = await readValidatedBody(event, parseWith(NoteBody))
+  await transaction(async (tx) => {
+    const cutter = await lockCutter(tx, user.shopId, id)
+    const { flagged } = await tx.selectFrom('cutters').select('flagged')
+      .where('shop_id', '=', user.shopId).where('id', '=', id).executeTakeFirstOrThrow()
+    if (flagged !== 'dull') {
+      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} is not flagged dull, so there is no flag to clear.` })
+    }
+    if (cutter.status === 'at_regrind' || cutter.status === 'retired') {
+      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}; its dull flag stays with that record.` })
+    }
+    await tx.updateTable('cutters').set({ flagged: null, flagged_at: null, updated_at: new Date() })
+      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
+    await recordEvent(tx, {
+      shopId: user.shopId, cutterId: id, kind: 'edited', from: cutter.status, to: cutter.status, actorId: user.id,
+      note: note ? `Dull flag cleared: ${note}` : 'Dull flag cleared',
+    })
+  })
+  return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
+})

@@ -1,0 +1,47 @@
+// Inputs of the resharpening routes, shared with the crib's resharpening page.
+import { z } from 'zod'
+
+const MAX_ID = 2_147_483_647
+const id = (what: string) => z.number({ error: `choose a ${what}` }).int().positive().max(MAX_ID)
+// A batch is a box of bits sent out together; a few hundred is far beyond any shop's run.
+const cutterIds = z.array(id('cutter'), { error: 'list the cutters by id' })
+  .max(500, { error: 'use at most 500 cutters in one batch' })
+  .transform((ids) => [...new Set(ids)])
+const note = z.string().trim().max(2000, { error: 'use at most 2000 characters' })
+
+export const BatchIdParams = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })
+
+export const CreateBatchBody = z.object({
+  cutterIds: cutterIds.refine((ids) => ids.length > 0, { error: 'choose at least one cutter' }),
+  supplierId: id('supplier').nullish(),
+  note: note.optional(),
+})
+export type CreateBatchInput = z.input<typeof CreateBatchBody>
+
+export const EditBatchBody = z.object({
+  addCutterIds: cutterIds.optional(),
+  removeCutterIds: cutterIds.optional(),
+  supplierId: id('supplier').nullish(),
+  note: note.optional(),
+})
+
+export const SendBatchBody = z.object({
+  // E-mail the list to the supplier; only when the supplier has an address.
+  emailSupplier: z.boolean().optional(),
+})
+
+export const ReceiveItem = z.object({
+  cutterId: id('cutter'),
+  diameterMm: z.number({ error: 'enter the measured diameter' })
+    .gt(0, { error: 'must be more than 0' })
+    .max(1000, { error: 'must be at most 1000 mm' }),
+  costCents: z.number({ error: 'enter the cost' }).int({ error: 'must be whole cents' })
+    .min(0, { error: 'cannot be negative' }).max(10_000_000, { error: 'must be at most 100,000.00' }).optional(),
+})
+
+export const ReceiveBatchBody = z.object({
+  items: z.array(ReceiveItem, { error: 'list each cutter with its measured diameter' })
+    .min(1, { error: 'list each cutter with its measured diameter' })
+    .max(500, { error: 'use at most 500 cutters in one batch' }),
+})
+export type ReceiveBatchInput = z.input<typeof ReceiveBatchBody>

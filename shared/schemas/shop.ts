@@ -1,0 +1,17 @@
+// The shop's own settings, shared by the settings page and its route.
+import { z } from 'zod'
+import { isValidTimeZone } from '../kerf/report-schedule'
+import { Email } from './auth'
+
+export const ShopUpdateBody = z.object({
+  name: z.string().trim().min(1, { error: 'enter the shop\'s name' }).max(120).optional(),
+  timeZone: z.string().refine(isValidTimeZone, { error: 'not a time zone name (for example America/Chicago)' }).optional(),
+  reportTime: z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, { error: 'use 24-hour time, for example 05:30' }).optional(),
+  // null: every crib manager and owner.
+  reportRecipients: z.array(Email).max(20, { error: 'at most 20 addresses' }).nullable().optional(),
+  dailyAllClear: z.boolean().optional(),
+  lifeThreshold: z.number().gt(0, { error: 'must be more than 0 %' }).max(1.5, { error: 'at most 150 %' }).optional(),
+  regrindLifeFraction: z.number().gt(0, { error: 'must be more than 0 %' }).max(1, { error: 'at most 100 %' }).optional(),
+  orderCostCents: z.number().int().min(0).max(10_000_000).optional(),
+  holdingRate: z.number().gt(0, { error: 'must be more than 0 %' }).max(5, { error: 'at most 500 %' }).optional(),
+})
