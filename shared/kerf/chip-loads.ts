@@ -26,13 +26,16 @@ export const BAND_EDGES_MM = [0, EDGE.small * MM_PER_INCH, EDGE.medium * MM_PER_
 
 /** The band's name in the shop's words: "up to 3/16 in", "3/16 to 5/16 in", "5/16 to 9/16 in". */
 export function bandLabel(band: Pick<ChipLoadBand, 'diameterMinMm' | 'diameterMaxMm'>): string {
-  const name = (mm: number) => {
-    for (const [inch, text] of [[EDGE.small, '3/16'], [EDGE.medium, '5/16'], [EDGE.large, '9/16']] as const) {
-      if (Math.abs(inch * MM_PER_INCH - mm) < 0.001) return `${text} in`
+  const inch = (mm: number) => {
+    for (const [size, text] of [[EDGE.small, '3/16'], [EDGE.medium, '5/16'], [EDGE.large, '9/16']] as const) {
+      if (Math.abs(size * MM_PER_INCH - mm) < 0.001) return text
     }
-    return `${Number(mm.toFixed(2))} mm`
+    return undefined
   }
-  return band.diameterMinMm <= 0 ? `up to ${name(band.diameterMaxMm)}` : `${name(band.diameterMinMm)} to ${name(band.diameterMaxMm)}`
+  const [lo, hi] = [inch(band.diameterMinMm), inch(band.diameterMaxMm)]
+  const mm = (v: number) => Number(v.toFixed(2))
+  if (band.diameterMinMm <= 0) return hi ? `up to ${hi} in` : `up to ${mm(band.diameterMaxMm)} mm`
+  return lo && hi ? `${lo} to ${hi} in` : `${mm(band.diameterMinMm)} to ${mm(band.diameterMaxMm)} mm`
 }
 
 // Router chip loads in inches per tooth for a 1/8 in and a 1/4 in bit: common practice, the same

@@ -74,7 +74,7 @@ describe('GET /api/feeds', () => {
     expect(r.surfaceSpeedMPerMin).toBeCloseTo(359, 0)
     expect(r.plungeMmPerMin).toBeCloseTo(12798.8 * 0.5, 0)
     expect(r.depthPerPassMm).toBeCloseTo(6.35, 2)
-    expect(r.band).toMatchObject({ label: '3/16 in to 5/16 in', outside: null })
+    expect(r.band).toMatchObject({ label: '3/16 to 5/16 in', outside: null })
     expect(r.band.source).toMatch(/common practice/)
     expect(r.cautions).toHaveLength(6)
     expect(r.cautions.join(' ')).toMatch(/bit maker's data, the machine's manual and local codes govern/)
@@ -187,13 +187,13 @@ describe('the shop\'s chip-load table', () => {
   it('starts with three bands for every family at sign-up', async () => {
     const rows = (await shop.operator.get('/api/chip-loads')).body
     expect(rows).toHaveLength(21)
-    expect(rows.find((r: { family: string, label: string }) => r.family === 'hard_plastic' && r.label === '3/16 in to 5/16 in'))
+    expect(rows.find((r: { family: string, label: string }) => r.family === 'hard_plastic' && r.label === '3/16 to 5/16 in'))
       .toMatchObject({ chipLoadMinMm: 0.127, chipLoadMaxMm: 0.2286, surfaceSpeedMPerMin: 359 })
   })
 
   it('the crib manager edits a row and the feeds follow; an operator may not', async () => {
     const rows = (await shop.crib.get('/api/chip-loads')).body
-    const row = rows.find((r: { family: string, label: string }) => r.family === 'foam' && r.label === '3/16 in to 5/16 in')
+    const row = rows.find((r: { family: string, label: string }) => r.family === 'foam' && r.label === '3/16 to 5/16 in')
     expect((await shop.operator.patch(`/api/chip-loads/${row.id}`, { chipLoadMinMm: 0.2 })).status).toBe(403)
     const res = await shop.crib.patch(`/api/chip-loads/${row.id}`, { chipLoadMinMm: 0.2, chipLoadMaxMm: 0.3, surfaceSpeedMPerMin: null, source: 'Our own trials, 2026' })
     expect(res.status).toBe(200)

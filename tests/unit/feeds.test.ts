@@ -98,7 +98,7 @@ describe('the starting chip-load table (common practice, REFERENCES.md "Router c
       }
     }
     expect(BAND_EDGES_MM[3]).toBeCloseTo(14.2875, 9)
-    expect(bandLabel({ diameterMinMm: 4.7625, diameterMaxMm: 7.9375 })).toBe('3/16 in to 5/16 in')
+    expect(bandLabel({ diameterMinMm: 4.7625, diameterMaxMm: 7.9375 })).toBe('3/16 to 5/16 in')
   })
 
   it('picks the band holding the diameter (lower edge inside), or the nearest one and says so', () => {
