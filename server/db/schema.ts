@@ -1,6 +1,8 @@
 // The one Database type, composed from a file of tables per room.
 import type { AuthTokensTable, LoginAttemptsTable, ShopsTable, UsersTable } from './tables/shop'
-import type { CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable } from './tables/spindle'
+import type {
+  ChipLoadsTable, CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable,
+} from './tables/spindle'
 import type {
   CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
   SuppliersTable, ToolingReportsTable,
@@ -17,6 +19,7 @@ export interface Database {
   login_attempts: LoginAttemptsTable
   machines: MachinesTable
   materials: MaterialsTable
+  chip_loads: ChipLoadsTable
   suppliers: SuppliersTable
   cutter_types: CutterTypesTable
   purchase_orders: PurchaseOrdersTable

@@ -14,9 +14,16 @@ describe('navigation', () => {
   it('shows the team page to owners only', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
-    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/account'])
-    expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/crib', '/reports', '/account'])
+    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/account'])
+    expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/crib', '/reports', '/account'])
     expect(navigationFor(undefined)).toEqual([])
+  })
+
+  it('keeps the phone bar to four items for every role; the feeds calculator sits on Account', () => {
+    for (const role of ['operator', 'crib_manager', 'owner'] as const) {
+      expect(navigationFor(role).filter((i) => i.phone).length).toBeLessThanOrEqual(4)
+      expect(navigationFor(role).find((i) => i.to === '/feeds')).toMatchObject({ phone: false, icon: 'feeds' })
+    }
   })
 })
 

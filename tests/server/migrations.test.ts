@@ -3,10 +3,11 @@ import { sql } from 'kysely'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { connect, type Db } from '../../server/db/connect'
 import { freshDatabase, migrate } from '../support/db'
+import { down as dropChipLoads, up as addChipLoads } from '../../migrations/2026_12_04_0001_feeds'
 
 const TABLES = ['shops', 'users', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
   'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
-  'regrind_batch_items', 'tooling_reports']
+  'regrind_batch_items', 'tooling_reports', 'chip_loads']
 
 let url: string
 let db: Db
@@ -96,5 +97,28 @@ describe('the schema refuses impossible values', () => {
     const other = (await db.insertInto('shops').values({ name: 'Other shop' }).returning('id').executeTakeFirstOrThrow()).id
     await expect(db.insertInto('cutters').values({ shop_id: other, type_id: typeId, code: 'ABCD236', diameter_mm: 6 }).execute())
       .rejects.toThrow(/foreign key/)
+  })
+})
+
+describe('the chip-load table', () => {
+  it('is seeded for every shop that exists when it is added', async () => {
+    const shops = await db.selectFrom('shops').select('id').execute()
+    expect(shops.length).toBeGreaterThanOrEqual(2)
+    // Its own down and up, called directly, so that a later migration does not change what is undone.
+    await dropChipLoads(db)
+    expect(await tables()).not.toContain('chip_loads')
+    await addChipLoads(db)
+    for (const s of shops) {
+      const rows = await db.selectFrom('chip_loads').select(['family', 'source']).where('shop_id', '=', s.id).execute()
+      expect(rows).toHaveLength(21)
+      expect(new Set(rows.map((r) => r.family)).size).toBe(7)
+    }
+  })
+
+  it('refuses a range whose smallest chip load is above its largest, and a second row for one band', async () => {
+    const shopId = (await db.selectFrom('shops').select('id').orderBy('id').executeTakeFirstOrThrow()).id
+    const row = { shop_id: shopId, family: 'wood' as const, diameter_min_mm: 20, diameter_max_mm: 30, chip_load_min_mm: 0.2, chip_load_max_mm: 0.1, source: 'test' }
+    await expect(db.insertInto('chip_loads').values(row).execute()).rejects.toThrow(/check constraint/)
+    await expect(db.insertInto('chip_loads').values({ ...row, diameter_min_mm: 0, chip_load_max_mm: 0.3 }).execute()).rejects.toThrow(/duplicate key/)
   })
 })

@@ -1,4 +1,4 @@
-// Sign up: a new shop with its owner, and the common materials to start from.
+// Sign up: a new shop with its owner, and the common materials and chip loads to start from.
 import { SignupBody } from '#shared/schemas/auth'
 import { STARTING_MATERIALS } from '#shared/kerf/materials'
 
@@ -19,6 +19,7 @@ export default defineEventHandler(async (event) => {
     await tx.insertInto('materials').values(STARTING_MATERIALS.map((m) => ({
       shop_id: shop.id, name: m.name, family: m.family, wear_factor: m.wearFactor, common: m.common,
     }))).execute()
+    await tx.insertInto('chip_loads').values(startingChipLoadRows(shop.id)).execute()
     return tx.insertInto('users').values({
       shop_id: shop.id, email: body.email, name: body.name, role: 'owner', password_hash: passwordHash,
       last_login_at: new Date(),

@@ -5,6 +5,7 @@ import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import { sql, type Insertable } from 'kysely'
 import type { Db, Tx } from '../connect'
 import type { Database } from '../schema'
+import { startingChipLoadRows } from '../../utils/chip-loads'
 import {
   CRIB_EMAIL, CUTTER_TYPES, DEMO_PASSWORD, DEMO_SHOP, MACHINES, MATERIALS, OPEN_ORDER, PEOPLE, REGRIND_SUPPLIER, SUPPLIERS,
 } from './demo-data'
@@ -74,6 +75,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
     shop_id: shopId, name: m.name, family: m.family, wear_factor: m.wearFactor, common: m.common, created_at: setUp,
   }))).returning(['id', 'name']).execute()
   const materialId = idsBy(materials, 'name')
+  await tx.insertInto('chip_loads').values(startingChipLoadRows(shopId).map((r) => ({ ...r, updated_at: setUp }))).execute()
 
   const suppliers = await tx.insertInto('suppliers').values(SUPPLIERS.map((s) => ({
     shop_id: shopId, name: s.name, email: s.email, phone: s.phone, lead_time_days: s.leadTimeDays, note: s.note, created_at: setUp,

@@ -32,6 +32,23 @@ export interface MaterialsTable {
   created_at: Stamp
 }
 
+/** The shop's chip-load table for feeds and speeds: one row per material family and diameter band. */
+export interface ChipLoadsTable {
+  id: Generated<number>
+  shop_id: number
+  family: MaterialFamily
+  diameter_min_mm: number
+  diameter_max_mm: number
+  chip_load_min_mm: number
+  chip_load_max_mm: number
+  surface_speed_m_per_min: number | null
+  plunge_fraction: number | null
+  depth_per_pass_factor: number | null
+  source: string
+  updated_by: number | null
+  updated_at: Stamp
+}
+
 export interface CuttersTable {
   id: Generated<number>
   shop_id: number
