@@ -6,7 +6,7 @@ import { freshDatabase, migrate } from '../support/db'
 
 const TABLES = ['shops', 'users', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
   'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
-  'regrind_batch_items', 'tooling_reports']
+  'regrind_batch_items', 'tooling_reports', 'cut_log_daily', 'cut_log_lives', 'wear_factor_adoptions']
 
 let url: string
 let db: Db
