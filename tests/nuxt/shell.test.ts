@@ -7,8 +7,9 @@ import DueList from '~/components/home/DueList.vue'
 import { navigationFor } from '~/composables/useNavigation'
 
 describe('navigation', () => {
-  it('shows the team page to owners only', () => {
+  it('shows the team and insights pages to owners only', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
+    expect(navigationFor('owner').find((i) => i.to === '/insights')).toMatchObject({ label: 'Insights', icon: 'insights', phone: false })
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
     expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/account'])
     expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/crib', '/reports', '/account'])
