@@ -77,6 +77,9 @@ async function main() {
           'volume-' || g, now() - interval '365 days' + interval '1 second' * floor((j + random()) * 315360)
         from logs`.execute(tx)
       await sql`alter table cut_logs enable trigger cut_logs_roll_up`.execute(tx)
+      // Fresh statistics and room to group in memory, or the rebuild plans for an empty table.
+      await sql`analyze cut_logs`.execute(tx)
+      await sql`set local work_mem = '256MB'`.execute(tx)
       await sql`select rebuild_cut_log_roll_ups(${shop.id})`.execute(tx)
       return shop.id
     })

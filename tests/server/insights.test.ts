@@ -77,29 +77,35 @@ describe('who may read insights', () => {
   })
 })
 
+/** The roll-ups summed by material and by life, beside the same sums over the raw logs. */
+async function rollUpsAgainstRaw() {
+  const db = appDb()
+  try {
+    const daily = await sql`
+      select material_id, sum(logs)::int as logs, sum(minutes) as minutes, round(sum(new_lives), 6) as new_lives, sum(broken)::int as broken
+      from cut_log_daily where shop_id = ${shop.id} group by material_id order by material_id`.execute(db)
+    const raw = await sql`
+      select material_id, count(*)::int as logs, sum(minutes) as minutes, round(sum(minutes * wear_factor / 600), 6) as new_lives,
+        (count(*) filter (where outcome = 'broken'))::int as broken
+      from cut_logs where shop_id = ${shop.id} group by material_id order by material_id`.execute(db)
+    const lives = await sql`
+      select cutter_id, regrind_count, material_id, logs, minutes, round(sharp_share, 6) as share
+      from cut_log_lives where shop_id = ${shop.id} order by 1, 2, 3`.execute(db)
+    const rawLives = await sql`
+      select cutter_id, regrind_count, material_id, count(*)::int as logs, sum(minutes) as minutes, round(sum(life_added / wear_factor), 6) as share
+      from cut_logs where shop_id = ${shop.id} group by 1, 2, 3 order by 1, 2, 3`.execute(db)
+    return { daily: daily.rows, raw: raw.rows, lives: lives.rows, rawLives: rawLives.rows }
+  } finally {
+    await db.destroy()
+  }
+}
+
 describe('the roll-ups', () => {
   it('agree with the raw cut logs written through the spindle route', async () => {
-    const db = appDb()
-    try {
-      const daily = await sql<{ material_id: number, logs: number, minutes: number, new_lives: number, broken: number }>`
-        select material_id, sum(logs)::int as logs, sum(minutes) as minutes, round(sum(new_lives), 6) as new_lives, sum(broken)::int as broken
-        from cut_log_daily where shop_id = ${shop.id} group by material_id order by material_id`.execute(db)
-      const raw = await sql`
-        select material_id, count(*)::int as logs, sum(minutes) as minutes, round(sum(minutes * wear_factor / 600), 6) as new_lives,
-          (count(*) filter (where outcome = 'broken'))::int as broken
-        from cut_logs where shop_id = ${shop.id} group by material_id order by material_id`.execute(db)
-      expect(daily.rows).toEqual(raw.rows)
-      expect(daily.rows.length).toBe(4)
-      const lives = await sql`
-        select cutter_id, regrind_count, material_id, logs, minutes, round(sharp_share, 6) as share
-        from cut_log_lives where shop_id = ${shop.id} order by 1, 2, 3`.execute(db)
-      const rawLives = await sql`
-        select cutter_id, regrind_count, material_id, count(*)::int as logs, sum(minutes) as minutes, round(sum(life_added / wear_factor), 6) as share
-        from cut_logs where shop_id = ${shop.id} group by 1, 2, 3 order by 1, 2, 3`.execute(db)
-      expect(lives.rows).toEqual(rawLives.rows)
-    } finally {
-      await db.destroy()
-    }
+    const { daily, raw, lives, rawLives } = await rollUpsAgainstRaw()
+    expect(daily).toEqual(raw)
+    expect(daily.length).toBe(4)
+    expect(lives).toEqual(rawLives)
   })
 })
 
@@ -187,5 +193,15 @@ describe('learned wear', () => {
     const theirs = ((await other.owner.get('/api/insights/wear')).body.materials as Array<{ materialId: number }>)[0]!.materialId
     expect((await shop.owner.post('/api/insights/wear/adopt', { materialIds: [theirs] })).status).toBe(404)
     expect((await shop.crib.post('/api/insights/wear/adopt', { materialIds: [] })).status).toBe(400)
+  })
+})
+
+describe('the roll-ups, later', () => {
+  it('still agree after more logs land on the same day, material, operator and (no) machine', async () => {
+    for (const minutes of [15, 25]) expect((await cut(shop.operator, fx.cutters[0]!.id, { materialId: mat.Softwood, minutes })).status).toBe(201)
+    const { daily, raw, lives, rawLives } = await rollUpsAgainstRaw()
+    expect(daily).toEqual(raw)
+    expect(lives).toEqual(rawLives)
+    expect(raw.find((r) => (r as { material_id: number }).material_id === mat.Softwood)).toMatchObject({ logs: 2, minutes: 40 })
   })
 })
