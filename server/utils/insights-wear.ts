@@ -13,36 +13,26 @@ export async function learnedWear(db: Queryable, shopId: number, range: DateRang
     // A life is finished when the cutter was reground since (its count moved on), or it is the
     // current life and the cutter went dull, is out for resharpening or was retired worn out.
     // Broken and lost cutters say nothing about wear. Lives count in the range they ended in.
-    sql<{ cutter_id: number, regrind_count: number, material_id: number, minutes: number, sharp_share: number }>`
-      with finished as (
-        select l.cutter_id, l.regrind_count
-        from cut_log_lives l
-        join cutters c on c.id = l.cutter_id and c.shop_id = l.shop_id
-        where l.shop_id = ${shopId}
-          and (c.regrind_count > l.regrind_count or (c.regrind_count = l.regrind_count and (
-            c.flagged = 'dull' or c.status = 'at_regrind' or (c.status = 'retired' and c.retired_reason in ('worn', 'undersize')))))
-        group by l.cutter_id, l.regrind_count
-        having max(l.last_cut_at) >= ${range.start} and max(l.last_cut_at) < ${range.end}
-      )
-      select l.cutter_id, l.regrind_count, l.material_id, l.minutes, l.sharp_share
-      from cut_log_lives l join finished f using (cutter_id, regrind_count)
+    // One row a life, its materials in arrays: one pass over the roll-up and few rows to send.
+    sql<{ materials: number[], minutes: number[], sharp_minutes: number | null }>`
+      select array_agg(l.material_id) as materials, array_agg(l.minutes::float8) as minutes,
+        (sum(l.minutes) / nullif(sum(l.sharp_share), 0))::float8 as sharp_minutes
+      from cut_log_lives l
+      join cutters c on c.id = l.cutter_id and c.shop_id = l.shop_id
       where l.shop_id = ${shopId}
-      order by l.cutter_id, l.regrind_count`.execute(db).then((r) => r.rows),
+        and (c.regrind_count > l.regrind_count or (c.regrind_count = l.regrind_count and (
+          c.flagged = 'dull' or c.status = 'at_regrind' or (c.status = 'retired' and c.retired_reason in ('worn', 'undersize')))))
+      group by l.cutter_id, l.regrind_count
+      having max(l.last_cut_at) >= ${range.start} and max(l.last_cut_at) < ${range.end}`.execute(db).then((r) => r.rows),
   ])
 
-  const lives = new Map<string, { minutes: number, share: number, cuts: FinishedLife['cuts'][number][] }>()
-  for (const r of rows) {
-    const key = `${r.cutter_id}:${r.regrind_count}`
-    const life = lives.get(key) ?? { minutes: 0, share: 0, cuts: [] }
-    life.minutes += Number(r.minutes)
-    life.share += Number(r.sharp_share)
-    life.cuts.push({ materialId: r.material_id, minutes: Number(r.minutes) })
-    lives.set(key, life)
-  }
   // Rated life × life scale as each log had it, recovered from life_added / wear factor: so a
   // later catalogue edit or a changed regrind fraction does not reshape old lives.
-  const finished: FinishedLife[] = [...lives.values()].filter((l) => l.share > 0)
-    .map((l) => ({ ratedLifeMinutes: l.minutes / l.share, lifeScale: 1, cuts: l.cuts }))
+  const finished: FinishedLife[] = rows.filter((r) => r.sharp_minutes && r.sharp_minutes > 0).map((r) => ({
+    ratedLifeMinutes: r.sharp_minutes!,
+    lifeScale: 1,
+    cuts: r.materials.map((materialId, i) => ({ materialId, minutes: r.minutes[i]! })),
+  }))
 
   const fit = fitWear(finished, materials.map((m) => ({ materialId: m.id, startingFactor: m.wear_factor })))
   return fit.map((f, i) => ({

@@ -98,7 +98,8 @@ export function fitWear(lives: readonly FinishedLife[], materials: readonly Star
   const k = options.priorLives ?? DEFAULT_PRIOR_LIVES
   const n = materials.length
   const column = new Map(materials.map((m, i) => [m.materialId, i]))
-  const G = Matrix.zeros(n, n)
+  // AᵀA in a flat array while the lives stream past (ml-matrix's get/set is slow in a hot loop).
+  const ata = new Float64Array(n * n)
   const h = Array<number>(n).fill(0)
   const livesBy = Array<number>(n).fill(0)
   const minutesBy = Array<number>(n).fill(0)
@@ -117,9 +118,10 @@ export function fitWear(lives: readonly FinishedLife[], materials: readonly Star
     for (const [i, ai] of row) {
       livesBy[i]! += 1
       h[i]! += ai
-      for (const [j, aj] of row) G.set(i, j, G.get(i, j) + ai * aj)
+      for (const [j, aj] of row) ata[i * n + j]! += ai * aj
     }
   }
+  const G = new Matrix(Array.from({ length: n }, (_, i) => Array.from(ata.subarray(i * n, (i + 1) * n))))
   materials.forEach((m, i) => {
     if (!(m.startingFactor > 0)) throw new RangeError('starting factors must be positive')
     const perLife = livesBy[i] ? G.get(i, i) / livesBy[i]! : 1 / m.startingFactor ** 2
