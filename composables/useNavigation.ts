@@ -2,7 +2,7 @@
 // the bottom tab bar; the rest are reached from the Account page on a phone.
 import { roleAtLeast, type Role } from '#shared/kerf/roles'
 
-export type NavIconName = 'home' | 'scan' | 'feeds' | 'crib' | 'report' | 'people' | 'settings' | 'account'
+export type NavIconName = 'home' | 'scan' | 'feeds' | 'crib' | 'report' | 'people' | 'settings' | 'account' | 'insights'
 export interface NavItem { to: string, label: string, icon: NavIconName, role: Role, phone: boolean }
 
 const ITEMS: NavItem[] = [
@@ -11,6 +11,7 @@ const ITEMS: NavItem[] = [
   { to: '/feeds', label: 'Feeds', icon: 'feeds', role: 'operator', phone: false },
   { to: '/crib', label: 'Crib', icon: 'crib', role: 'crib_manager', phone: true },
   { to: '/reports', label: 'Reports', icon: 'report', role: 'crib_manager', phone: false },
+  { to: '/insights', label: 'Insights', icon: 'insights', role: 'owner', phone: false },
   { to: '/team', label: 'Team', icon: 'people', role: 'owner', phone: false },
   { to: '/settings', label: 'Settings', icon: 'settings', role: 'owner', phone: false },
   { to: '/account', label: 'Account', icon: 'account', role: 'operator', phone: true },

@@ -7,10 +7,12 @@ import type {
   CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
   SuppliersTable, ToolingReportsTable,
 } from './tables/crib'
+import type { CutLogDailyTable, CutLogLivesTable, WearFactorAdoptionsTable } from './tables/insights'
 
 export type * from './tables/shop'
 export type * from './tables/spindle'
 export type * from './tables/crib'
+export type * from './tables/insights'
 
 export interface Database {
   shops: ShopsTable
@@ -31,4 +33,7 @@ export interface Database {
   regrind_batches: RegrindBatchesTable
   regrind_batch_items: RegrindBatchItemsTable
   tooling_reports: ToolingReportsTable
+  cut_log_daily: CutLogDailyTable
+  cut_log_lives: CutLogLivesTable
+  wear_factor_adoptions: WearFactorAdoptionsTable
 }

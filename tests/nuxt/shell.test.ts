@@ -11,8 +11,9 @@ describe('navigation', () => {
     for (const role of ['operator', 'crib_manager', 'owner'] as const) expect(navigationFor(role).map((i) => i.to)).toContain('/scan')
   })
 
-  it('shows the team page to owners only', () => {
+  it('shows the team and insights pages to owners only', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
+    expect(navigationFor('owner').find((i) => i.to === '/insights')).toMatchObject({ label: 'Insights', icon: 'insights', phone: false })
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
     expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/account'])
     expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/crib', '/reports', '/account'])

@@ -1,0 +1,27 @@
+// The owner's insights over one date range: wear by material, cost per cut-hour, spend by month
+// and outcomes, each fetched under its own key and refetched when the range changes.
+import type { InternalApi } from 'nitropack/types'
+import type { CostGroup } from '#shared/schemas/insights'
+
+export type WearInsight = InternalApi['/api/insights/wear']['get']['materials'][number]
+export type CostInsight = InternalApi['/api/insights/cost']['get']['rows'][number]
+export type SpendInsight = InternalApi['/api/insights/spend']['get']['months'][number]
+export type OutcomeInsight = InternalApi['/api/insights/outcomes']['get']['byMaterial'][number]
+
+export function useInsights(range: Ref<{ from: string, to: string }>, by: Ref<CostGroup>) {
+  const query = computed(() => ({ from: range.value.from, to: range.value.to }))
+  return {
+    wear: useFetch('/api/insights/wear', { key: 'insights-wear', query, default: () => ({ from: '', to: '', materials: [] }) }),
+    cost: useFetch('/api/insights/cost', {
+      key: 'insights-cost', query: computed(() => ({ ...query.value, by: by.value })), default: () => ({ from: '', to: '', by: by.value, rows: [] }),
+    }),
+    spend: useFetch('/api/insights/spend', { key: 'insights-spend', query, default: () => ({ from: '', to: '', months: [] }) }),
+    outcomes: useFetch('/api/insights/outcomes', {
+      key: 'insights-outcomes', query, default: () => ({ from: '', to: '', logs: 0, broken: 0, breakageRate: null, byMaterial: [], byProfile: [] }),
+    }),
+  }
+}
+
+/** "$12.34" from cents, for tables and chart axes. */
+export const dollars = (cents: number | null | undefined) => (cents === null || cents === undefined ? '—' : `$${(cents / 100).toFixed(2)}`)
+export const percent = (fraction: number | null | undefined) => (fraction === null || fraction === undefined ? '—' : `${(fraction * 100).toFixed(1)} %`)
