@@ -25,15 +25,6 @@ export async function refreshRegrind(batchId?: number) {
   await refreshNuxtData(['regrind-due', 'regrind-batches', ...(batchId ? [`regrind-batch-${batchId}`] : [])])
 }
 
-/** Money is kept in cents and shown with two decimals. */
-export const centsText = (cents: number | null | undefined) => (cents === null || cents === undefined ? '—' : (cents / 100).toFixed(2))
-
-/** "12.5" → 1250; undefined for anything that is not a non-negative amount. */
-export function parseCents(text: string): number | undefined {
-  const value = Number(text.trim().replace(',', '.'))
-  return text.trim() !== '' && Number.isFinite(value) && value >= 0 ? Math.round(value * 100) : undefined
-}
-
 /** A day as YYYY-MM-DD (UTC), the same on the server and in the browser. */
 export const dayText = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—')
 

@@ -1,4 +1,5 @@
 // Purchase orders as the crib sees them, and the e-mail a supplier gets.
+import { showMoney } from '#shared/kerf/money'
 import type { Queryable } from '../db/connect'
 import type { OutgoingMail } from './mail'
 
@@ -39,11 +40,10 @@ export type OrderView = Awaited<ReturnType<typeof orderView>>
 
 export const orderNumber = (id: number) => `PO-${String(id).padStart(5, '0')}`
 
-const money = (cents: number) => `$${(cents / 100).toFixed(2)}`
 
 export function orderMail(order: OrderView, shopName: string, senderName: string): OutgoingMail {
   const rows = order.lines.map((l) => ({
-    part: l.supplierPartNumber || '(no part number)', name: l.typeName, qty: l.quantity, unit: money(l.unitCostCents), total: money(l.totalCents),
+    part: l.supplierPartNumber || '(no part number)', name: l.typeName, qty: l.quantity, unit: showMoney(l.unitCostCents), total: showMoney(l.totalCents),
   }))
   const text = [
     `Hello ${order.supplier?.name ?? ''},`,
@@ -52,7 +52,7 @@ export function orderMail(order: OrderView, shopName: string, senderName: string
     '',
     ...rows.map((r) => `- ${r.qty} x ${r.part}  ${r.name}  at ${r.unit} = ${r.total}`),
     '',
-    `Order total: ${money(order.totalCents)}`,
+    `Order total: ${showMoney(order.totalCents)}`,
     ...(order.note ? ['', `Note: ${order.note}`] : []),
     '',
     'Please confirm the delivery date by replying to this e-mail.',
@@ -66,7 +66,7 @@ export function orderMail(order: OrderView, shopName: string, senderName: string
 <table style="border-collapse:collapse"><tr><th style="${cell}">Qty</th><th style="${cell}">Part number</th><th style="${cell}">Description</th><th style="${cell}">Unit</th><th style="${cell}">Total</th></tr>
 ${rows.map((r) => `<tr><td style="${cell}">${r.qty}</td><td style="${cell}">${escapeHtml(r.part)}</td><td style="${cell}">${escapeHtml(r.name)}</td><td style="${cell}">${r.unit}</td><td style="${cell}">${r.total}</td></tr>`).join('\n')}
 </table>
-<p><strong>Order total: ${money(order.totalCents)}</strong></p>
+<p><strong>Order total: ${showMoney(order.totalCents)}</strong></p>
 ${order.note ? `<p>Note: ${escapeHtml(order.note)}</p>` : ''}
 <p>Please confirm the delivery date by replying to this e-mail.</p>
 <p>${escapeHtml(senderName)}, ${escapeHtml(shopName)}</p></body></html>`
