@@ -7,7 +7,7 @@ import type { Tx } from '../db/connect'
 export async function lockCutter(tx: Tx, shopId: number, id: number) {
   const row = await tx.selectFrom('cutters as c')
     .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
-    .select(['c.id', 'c.code', 'c.status', 'c.machine_id', 'c.regrind_count', 'c.life_scale', 'c.life_used', 't.rated_life_minutes'])
+    .select(['c.id', 'c.code', 'c.status', 'c.machine_id', 'c.flagged', 'c.regrind_count', 'c.life_scale', 'c.life_used', 't.rated_life_minutes'])
     .where('c.shop_id', '=', shopId).where('c.id', '=', id)
     .forUpdate('c')
     .executeTakeFirst()

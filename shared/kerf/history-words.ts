@@ -1,8 +1,9 @@
 // The words of a cutter's history: what each event kind means, and the outcome of a cut. Pure.
+import type { CutOutcome } from './spindle'
 
+export type { CutOutcome }
 export type CutterEventKind = 'received' | 'loaded' | 'returned' | 'cut_logged' | 'flagged_dull' | 'flagged_broken'
   | 'sent_to_regrind' | 'reground' | 'retired' | 'lost' | 'found' | 'edited'
-export type CutOutcome = 'clean' | 'melted' | 'chip_out' | 'fuzzy' | 'broken'
 
 export const EVENT_LABELS: Record<CutterEventKind, string> = {
   received: 'Received into the crib',

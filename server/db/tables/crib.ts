@@ -1,9 +1,8 @@
 // The crib: suppliers, the catalogue of cutter types, purchase orders and regrind batches.
 import type { ColumnType, Generated } from 'kysely'
+import type { Helix, Profile, ToolMaterial } from '../../../shared/kerf/geometry'
 
-export type Profile = 'square_end' | 'ball_nose' | 'v_bit' | 'o_flute'
-export type Helix = 'upcut' | 'downcut' | 'compression' | 'straight'
-export type ToolMaterial = 'solid_carbide' | 'carbide_tipped' | 'hss'
+export type { Helix, Profile, ToolMaterial }
 // A timestamp with a default: optional on insert, a Date when read.
 type Stamp = ColumnType<Date, Date | string | undefined, Date | string>
 

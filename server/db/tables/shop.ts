@@ -1,8 +1,9 @@
 // Shops and the people in them.
 import type { ColumnType, Generated } from 'kysely'
+import type { Role } from '../../../shared/kerf/roles'
+import type { LengthUnit } from '../../../shared/kerf/units'
 
-export type Role = 'operator' | 'crib_manager' | 'owner'
-export type LengthUnit = 'mm' | 'in'
+export type { LengthUnit, Role }
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>
 
 export interface ShopsTable {

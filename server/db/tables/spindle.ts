@@ -1,12 +1,15 @@
 // The spindle room: machines, materials, cutters and what happens to them.
 import type { ColumnType, Generated } from 'kysely'
+import type { CutterStatus } from '../../../shared/kerf/status'
+import type { MaterialFamily } from '../../../shared/kerf/materials'
+import type { CutOutcome } from '../../../shared/kerf/spindle'
+import type { CutterEventKind } from '../../../shared/kerf/history-words'
 
-export type CutterStatus = 'in_crib' | 'in_spindle' | 'at_regrind' | 'retired' | 'lost'
-export type MaterialFamily = 'hard_plastic' | 'soft_plastic' | 'wood' | 'sheet_goods' | 'non_ferrous' | 'foam' | 'composite'
-export type CutOutcome = 'clean' | 'melted' | 'chip_out' | 'fuzzy' | 'broken'
-export type CutterEventKind = 'received' | 'loaded' | 'returned' | 'cut_logged' | 'flagged_dull' | 'flagged_broken'
-  | 'sent_to_regrind' | 'reground' | 'retired' | 'lost' | 'found' | 'edited'
-// A timestamp with a default: optional on insert, a Date when read.
+// The value lists live once in shared/kerf, where the pages and the CHECK-matching schemas use them.
+export type { CutterStatus } from '../../../shared/kerf/status'
+export type { MaterialFamily } from '../../../shared/kerf/materials'
+export type { CutOutcome } from '../../../shared/kerf/spindle'
+export type { CutterEventKind } from '../../../shared/kerf/history-words'
 type Stamp = ColumnType<Date, Date | string | undefined, Date | string>
 
 export interface MachinesTable {

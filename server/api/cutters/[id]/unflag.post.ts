@@ -9,9 +9,7 @@ export default defineEventHandler(async (event) => {
   const { note } = await readValidatedBody(event, parseWith(NoteBody))
   await transaction(async (tx) => {
     const cutter = await lockCutter(tx, user.shopId, id)
-    const { flagged } = await tx.selectFrom('cutters').select('flagged')
-      .where('shop_id', '=', user.shopId).where('id', '=', id).executeTakeFirstOrThrow()
-    if (flagged !== 'dull') {
+    if (cutter.flagged !== 'dull') {
       throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} is not flagged dull, so there is no flag to clear.` })
     }
     if (cutter.status === 'at_regrind' || cutter.status === 'retired') {
