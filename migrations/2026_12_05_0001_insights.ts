@@ -41,56 +41,10 @@ export async function up(db: Kysely<any>): Promise<void> {
       last_cut_at timestamptz not null,
       primary key (shop_id, cutter_id, regrind_count, material_id)
     );
-
-    create function cut_logs_roll_up() returns trigger language plpgsql as $$
-    declare
-      t record;
-    begin
-      select ct.id, ct.rated_life_minutes into t
-        from cutters c join cutter_types ct on ct.id = c.type_id and ct.shop_id = c.shop_id
-        where c.id = new.cutter_id and c.shop_id = new.shop_id;
-      insert into cut_log_daily as d (shop_id, day, material_id, machine_id, operator_id, type_id, logs, minutes, new_lives,
-          clean, melted, chip_out, fuzzy, broken)
-        values (new.shop_id, (new.cut_at at time zone 'UTC')::date, new.material_id, new.machine_id, new.operator_id, t.id, 1,
-          new.minutes, new.minutes * new.wear_factor / t.rated_life_minutes,
-          (new.outcome = 'clean')::int, (new.outcome = 'melted')::int, (new.outcome = 'chip_out')::int,
-          (new.outcome = 'fuzzy')::int, (new.outcome = 'broken')::int)
-        on conflict (shop_id, day, material_id, machine_id, operator_id, type_id) do update set
-          logs = d.logs + 1, minutes = d.minutes + excluded.minutes, new_lives = d.new_lives + excluded.new_lives,
-          clean = d.clean + excluded.clean, melted = d.melted + excluded.melted, chip_out = d.chip_out + excluded.chip_out,
-          fuzzy = d.fuzzy + excluded.fuzzy, broken = d.broken + excluded.broken;
-      insert into cut_log_lives as l (shop_id, cutter_id, regrind_count, material_id, logs, minutes, sharp_share, last_cut_at)
-        values (new.shop_id, new.cutter_id, new.regrind_count, new.material_id, 1, new.minutes, new.life_added / new.wear_factor, new.cut_at)
-        on conflict (shop_id, cutter_id, regrind_count, material_id) do update set
-          logs = l.logs + 1, minutes = l.minutes + excluded.minutes, sharp_share = l.sharp_share + excluded.sharp_share,
-          last_cut_at = greatest(l.last_cut_at, excluded.last_cut_at);
-      return null;
-    end $$;
-
+  `.execute(db)
+  await defineRollUpFunctions(db)
+  await sql`
     create trigger cut_logs_roll_up after insert on cut_logs for each row execute function cut_logs_roll_up();
-
-    -- Rebuilds one shop's roll-ups from its raw logs: for this migration and after a bulk load
-    -- made with the trigger switched off (scripts/seed-volume.ts).
-    create function rebuild_cut_log_roll_ups(p_shop integer) returns void language sql as $$
-      delete from cut_log_daily where shop_id = p_shop;
-      delete from cut_log_lives where shop_id = p_shop;
-      insert into cut_log_daily (shop_id, day, material_id, machine_id, operator_id, type_id, logs, minutes, new_lives,
-          clean, melted, chip_out, fuzzy, broken)
-        select l.shop_id, (l.cut_at at time zone 'UTC')::date, l.material_id, l.machine_id, l.operator_id, t.id, count(*),
-          sum(l.minutes), sum(l.minutes * l.wear_factor / t.rated_life_minutes),
-          count(*) filter (where l.outcome = 'clean'), count(*) filter (where l.outcome = 'melted'),
-          count(*) filter (where l.outcome = 'chip_out'), count(*) filter (where l.outcome = 'fuzzy'),
-          count(*) filter (where l.outcome = 'broken')
-        from cut_logs l
-        join cutters c on c.id = l.cutter_id and c.shop_id = l.shop_id
-        join cutter_types t on t.id = c.type_id and t.shop_id = c.shop_id
-        where l.shop_id = p_shop
-        group by 1, 2, 3, 4, 5, 6;
-      insert into cut_log_lives (shop_id, cutter_id, regrind_count, material_id, logs, minutes, sharp_share, last_cut_at)
-        select shop_id, cutter_id, regrind_count, material_id, count(*), sum(minutes), sum(life_added / wear_factor), max(cut_at)
-        from cut_logs where shop_id = p_shop
-        group by 1, 2, 3, 4;
-    $$;
 
     select rebuild_cut_log_roll_ups(id) from shops;
 
@@ -125,5 +79,59 @@ export async function down(db: Kysely<any>): Promise<void> {
     drop function if exists cut_logs_roll_up();
     drop function if exists rebuild_cut_log_roll_ups(integer);
     drop table if exists cut_log_lives, cut_log_daily;
+  `.execute(db)
+}
+
+// The roll-up functions as this migration made them; the sharp-lives migration's down puts them
+// back.
+export async function defineRollUpFunctions(db: Kysely<any>): Promise<void> {
+  await sql`
+    create or replace function cut_logs_roll_up() returns trigger language plpgsql as $$
+    declare
+      t record;
+    begin
+      select ct.id, ct.rated_life_minutes into t
+        from cutters c join cutter_types ct on ct.id = c.type_id and ct.shop_id = c.shop_id
+        where c.id = new.cutter_id and c.shop_id = new.shop_id;
+      insert into cut_log_daily as d (shop_id, day, material_id, machine_id, operator_id, type_id, logs, minutes, new_lives,
+          clean, melted, chip_out, fuzzy, broken)
+        values (new.shop_id, (new.cut_at at time zone 'UTC')::date, new.material_id, new.machine_id, new.operator_id, t.id, 1,
+          new.minutes, new.minutes * new.wear_factor / t.rated_life_minutes,
+          (new.outcome = 'clean')::int, (new.outcome = 'melted')::int, (new.outcome = 'chip_out')::int,
+          (new.outcome = 'fuzzy')::int, (new.outcome = 'broken')::int)
+        on conflict (shop_id, day, material_id, machine_id, operator_id, type_id) do update set
+          logs = d.logs + 1, minutes = d.minutes + excluded.minutes, new_lives = d.new_lives + excluded.new_lives,
+          clean = d.clean + excluded.clean, melted = d.melted + excluded.melted, chip_out = d.chip_out + excluded.chip_out,
+          fuzzy = d.fuzzy + excluded.fuzzy, broken = d.broken + excluded.broken;
+      insert into cut_log_lives as l (shop_id, cutter_id, regrind_count, material_id, logs, minutes, sharp_share, last_cut_at)
+        values (new.shop_id, new.cutter_id, new.regrind_count, new.material_id, 1, new.minutes, new.life_added / new.wear_factor, new.cut_at)
+        on conflict (shop_id, cutter_id, regrind_count, material_id) do update set
+          logs = l.logs + 1, minutes = l.minutes + excluded.minutes, sharp_share = l.sharp_share + excluded.sharp_share,
+          last_cut_at = greatest(l.last_cut_at, excluded.last_cut_at);
+      return null;
+    end $$;
+
+    -- Rebuilds one shop's roll-ups from its raw logs: for this migration and after a bulk load
+    -- made with the trigger switched off (scripts/seed-volume.ts).
+    create or replace function rebuild_cut_log_roll_ups(p_shop integer) returns void language sql as $$
+      delete from cut_log_daily where shop_id = p_shop;
+      delete from cut_log_lives where shop_id = p_shop;
+      insert into cut_log_daily (shop_id, day, material_id, machine_id, operator_id, type_id, logs, minutes, new_lives,
+          clean, melted, chip_out, fuzzy, broken)
+        select l.shop_id, (l.cut_at at time zone 'UTC')::date, l.material_id, l.machine_id, l.operator_id, t.id, count(*),
+          sum(l.minutes), sum(l.minutes * l.wear_factor / t.rated_life_minutes),
+          count(*) filter (where l.outcome = 'clean'), count(*) filter (where l.outcome = 'melted'),
+          count(*) filter (where l.outcome = 'chip_out'), count(*) filter (where l.outcome = 'fuzzy'),
+          count(*) filter (where l.outcome = 'broken')
+        from cut_logs l
+        join cutters c on c.id = l.cutter_id and c.shop_id = l.shop_id
+        join cutter_types t on t.id = c.type_id and t.shop_id = c.shop_id
+        where l.shop_id = p_shop
+        group by 1, 2, 3, 4, 5, 6;
+      insert into cut_log_lives (shop_id, cutter_id, regrind_count, material_id, logs, minutes, sharp_share, last_cut_at)
+        select shop_id, cutter_id, regrind_count, material_id, count(*), sum(minutes), sum(life_added / wear_factor), max(cut_at)
+        from cut_logs where shop_id = p_shop
+        group by 1, 2, 3, 4;
+    $$;
   `.execute(db)
 }

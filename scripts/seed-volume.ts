@@ -86,9 +86,9 @@ async function main() {
       await sql`select rebuild_cut_log_roll_ups(${shop.id})`.execute(tx)
       return shop.id
     })
-    await sql`analyze cut_logs; analyze cut_log_daily; analyze cut_log_lives; analyze cutters`.execute(db)
+    await sql`analyze cut_logs; analyze cut_log_daily; analyze cut_sharp_lives; analyze cutters`.execute(db)
     const daily = await db.selectFrom('cut_log_daily').select((eb) => eb.fn.countAll<number>().as('n')).where('shop_id', '=', shopId).executeTakeFirstOrThrow()
-    const lives = await db.selectFrom('cut_log_lives').select((eb) => eb.fn.countAll<number>().as('n')).where('shop_id', '=', shopId).executeTakeFirstOrThrow()
+    const lives = await db.selectFrom('cut_sharp_lives').select((eb) => eb.fn.countAll<number>().as('n')).where('shop_id', '=', shopId).executeTakeFirstOrThrow()
     console.log(`[seed:volume] shop ${shopId}: ${COUNT} cut logs, ${daily.n} daily roll-up rows, ${lives.n} life roll-up rows in ${((Date.now() - started) / 1000).toFixed(1)} s`)
     console.log(`[seed:volume] sign in as ${VOLUME_OWNER} / kerfbook-demo`)
   } finally {

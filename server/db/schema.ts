@@ -7,7 +7,7 @@ import type {
   CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
   SuppliersTable, ToolingReportsTable,
 } from './tables/crib'
-import type { CutLogDailyTable, CutLogLivesTable, WearFactorAdoptionsTable } from './tables/insights'
+import type { CutLogDailyTable, CutSharpLivesTable, WearFactorAdoptionsTable } from './tables/insights'
 
 export type * from './tables/shop'
 export type * from './tables/spindle'
@@ -34,6 +34,6 @@ export interface Database {
   regrind_batch_items: RegrindBatchItemsTable
   tooling_reports: ToolingReportsTable
   cut_log_daily: CutLogDailyTable
-  cut_log_lives: CutLogLivesTable
+  cut_sharp_lives: CutSharpLivesTable
   wear_factor_adoptions: WearFactorAdoptionsTable
 }

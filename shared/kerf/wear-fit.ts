@@ -104,22 +104,29 @@ export function fitWear(lives: readonly FinishedLife[], materials: readonly Star
   const livesBy = Array<number>(n).fill(0)
   const minutesBy = Array<number>(n).fill(0)
 
+  // One life's row of A, sparse: the columns it touched and their values (scratch reused).
+  const rowValue = new Float64Array(n)
+  const touched: number[] = []
   for (const life of lives) {
     if (!(life.ratedLifeMinutes > 0) || !(life.lifeScale > 0)) throw new RangeError('a life needs a positive rated life and life scale')
-    const row = new Map<number, number>()
+    const scale = life.ratedLifeMinutes * life.lifeScale
     for (const cut of life.cuts) {
       const j = column.get(cut.materialId)
       if (j === undefined) throw new RangeError(`material ${cut.materialId} has no starting factor`)
       if (!(cut.minutes > 0)) continue
-      row.set(j, (row.get(j) ?? 0) + cut.minutes / (life.ratedLifeMinutes * life.lifeScale))
+      if (rowValue[j] === 0) touched.push(j)
+      rowValue[j]! += cut.minutes / scale
       minutesBy[j]! += cut.minutes
     }
     // Accumulate AᵀA and Aᵀ1 a row at a time: the history never has to sit in memory as A.
-    for (const [i, ai] of row) {
+    for (const i of touched) {
+      const ai = rowValue[i]!
       livesBy[i]! += 1
       h[i]! += ai
-      for (const [j, aj] of row) ata[i * n + j]! += ai * aj
+      for (const j of touched) ata[i * n + j]! += ai * rowValue[j]!
     }
+    for (const i of touched) rowValue[i] = 0
+    touched.length = 0
   }
   const G = new Matrix(Array.from({ length: n }, (_, i) => Array.from(ata.subarray(i * n, (i + 1) * n))))
   materials.forEach((m, i) => {

@@ -89,11 +89,16 @@ async function rollUpsAgainstRaw() {
         (count(*) filter (where outcome = 'broken'))::int as broken
       from cut_logs where shop_id = ${shop.id} group by material_id order by material_id`.execute(db)
     const lives = await sql`
-      select cutter_id, regrind_count, material_id, logs, minutes, round(sharp_share, 6) as share
-      from cut_log_lives where shop_id = ${shop.id} order by 1, 2, 3`.execute(db)
+      select cutter_id, regrind_count, logs, minutes, round(sharp_share, 6) as share, material_minutes
+      from cut_sharp_lives where shop_id = ${shop.id} order by 1, 2`.execute(db)
     const rawLives = await sql`
-      select cutter_id, regrind_count, material_id, count(*)::int as logs, sum(minutes) as minutes, round(sum(life_added / wear_factor), 6) as share
-      from cut_logs where shop_id = ${shop.id} group by 1, 2, 3 order by 1, 2, 3`.execute(db)
+      select cutter_id, regrind_count, sum(logs)::int as logs, sum(minutes) as minutes, round(sum(share), 6) as share,
+        jsonb_object_agg(material_id::text, minutes) as material_minutes
+      from (
+        select cutter_id, regrind_count, material_id, count(*) as logs, sum(minutes) as minutes, sum(life_added / wear_factor) as share
+        from cut_logs where shop_id = ${shop.id} group by 1, 2, 3
+      ) by_material
+      group by 1, 2 order by 1, 2`.execute(db)
     return { daily: daily.rows, raw: raw.rows, lives: lives.rows, rawLives: rawLives.rows }
   } finally {
     await db.destroy()
@@ -106,6 +111,8 @@ describe('the roll-ups', () => {
     expect(daily).toEqual(raw)
     expect(daily.length).toBe(4)
     expect(lives).toEqual(rawLives)
+    // A life that cut more than one material keeps each material's minutes apart.
+    expect(lives.some((l) => Object.keys((l as { material_minutes: object }).material_minutes).length > 1)).toBe(true)
   })
 })
 

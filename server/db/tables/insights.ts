@@ -21,14 +21,16 @@ export interface CutLogDailyTable {
   broken: ByTrigger<number>
 }
 
-export interface CutLogLivesTable {
+/** One row per sharp life of a cutter (its regrind count), the minutes by material inside. */
+export interface CutSharpLivesTable {
   shop_id: ByTrigger<number>
   cutter_id: ByTrigger<number>
   regrind_count: ByTrigger<number>
-  material_id: ByTrigger<number>
   logs: ByTrigger<number>
   minutes: ByTrigger<number>
   sharp_share: ByTrigger<number>
+  /** Material id (as text) → minutes. */
+  material_minutes: ByTrigger<Record<string, number>>
   last_cut_at: ByTrigger<Date>
 }
 
