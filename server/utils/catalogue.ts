@@ -126,12 +126,13 @@ export function nameTaken(table: keyof typeof WHAT): never {
   throw createError({ statusCode: 409, statusMessage: `name: ${message}`, data: { fields: { name: message } } })
 }
 
-/** Runs a write; two people saving the same name at once meet the unique index, which answers 409 too. */
+/** Runs a write; two people saving the same name (in any case) at once meet the unique index, which answers 409 too. */
 export async function withUniqueName<T>(table: keyof typeof WHAT, write: () => Promise<T>): Promise<T> {
   try {
     return await write()
   } catch (err) {
-    if ((err as { code?: string, constraint?: string }).code === '23505' && (err as { constraint?: string }).constraint === `${table}_shop_id_name_key`) {
+    const { code, constraint } = err as { code?: string, constraint?: string }
+    if (code === '23505' && constraint === `${table}_shop_id_lower_name_key`) {
       nameTaken(table)
     }
     throw err

@@ -125,6 +125,20 @@ describe('names are unique in a shop', () => {
     expect(again.status).toBe(409)
     expect(again.body.data.fields.name).toMatch(/another supplier/)
   })
+
+  it('holds when two people save names differing only in case at the same moment', async () => {
+    const [upper, lower] = await Promise.all([
+      shop.crib.post('/api/cutter-types', typeBody({ name: 'V-GROOVE 90' })),
+      shop.owner.post('/api/cutter-types', typeBody({ name: 'v-groove 90' })),
+    ])
+    expect([upper.status, lower.status].sort()).toEqual([201, 409])
+    expect((upper.status === 409 ? upper : lower).body.data.fields.name).toMatch(/another cutter type/)
+    const [a, b] = await Promise.all([
+      shop.crib.post('/api/suppliers', { name: 'Moorside Grinding' }),
+      shop.owner.post('/api/suppliers', { name: 'MOORSIDE GRINDING' }),
+    ])
+    expect([a.status, b.status].sort()).toEqual([201, 409])
+  })
 })
 
 describe('suppliers', () => {
