@@ -56,7 +56,8 @@ export function chipText(mm: number | null | undefined, unit: LengthUnit): strin
 export const MELT_WARNINGS = ['downcut_in_plastic', 'chip_load_low', 'dull_in_hard_plastic']
 
 /** The server's sentence from a failed answer (useAsyncData keeps it in the error's data). */
-export function feedsProblem(err: { data?: unknown, message: string } | null | undefined): string | null {
+export function feedsProblem(err: { data?: unknown, message: string, cause?: unknown } | null | undefined): string | null {
   if (!err) return null
-  return (err.data as { message?: string } | undefined)?.message ?? err.message
+  // The server's sentence when it gave one; else the fetch failure in words (offline, not a URL).
+  return (err.data as { message?: string } | undefined)?.message ?? apiProblem(err.cause ?? err).message
 }
