@@ -3,6 +3,7 @@
 import { z } from 'zod'
 import { HELIXES, PROFILES, TOOL_MATERIALS } from '../kerf/geometry'
 import { Email } from './auth'
+import { Day } from './dates'
 
 export const IdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
@@ -24,7 +25,7 @@ const Cents = z.number({ error: 'enter an amount like 42.50' })
 
 export const CutterTypeFields = z.object({
   name: Name,
-  supplierId: z.number({ error: 'choose a supplier' }).int().positive().nullish(),
+  supplierId: z.number({ error: 'choose a supplier' }).int().positive().max(2_147_483_647).nullish(),
   supplierPartNumber: z.preprocess(blankToNull, z.string().trim().max(80, { error: 'use at most 80 characters' }).nullish()),
   profile: z.enum(PROFILES, { error: 'choose square end, ball nose, V-bit or O-flute' }),
   vAngleDeg: z.number({ error: 'enter the included angle in degrees' })
@@ -109,6 +110,6 @@ export const ImportBody = z.object({
 })
 
 export const CutLogExportQuery = z.object({
-  from: z.iso.date({ error: 'must be a date like 2026-01-31' }).optional(),
-  to: z.iso.date({ error: 'must be a date like 2026-01-31' }).optional(),
+  from: Day.optional(),
+  to: Day.optional(),
 }).refine((q) => !q.from || !q.to || q.from <= q.to, { path: ['to'], error: 'must be on or after the from date' })

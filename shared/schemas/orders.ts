@@ -1,7 +1,8 @@
 // Inputs of purchase orders and deliveries, shared by the crib's forms and routes.
 import { z } from 'zod'
 
-const Id = z.number().int().positive()
+// Ids are PostgreSQL integers: a larger number must be refused here, not fail in the database.
+const Id = z.number().int().positive().max(2_147_483_647)
 const Quantity = z.number({ error: 'enter a quantity' }).int({ error: 'must be a whole number' }).positive({ error: 'must be at least 1' }).max(10_000)
 
 export const OrderIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
@@ -36,7 +37,7 @@ export const ReceiveOrderBody = z.object({
 })
 
 export const DeliveryBody = z.object({
-  typeId: z.number({ error: 'choose a cutter type' }).int().positive(),
+  typeId: z.number({ error: 'choose a cutter type' }).int().positive().max(2_147_483_647),
   quantity: Quantity.max(500, { error: 'at most 500 at once' }),
   diameterMm: z.number().positive().max(200).optional(),
   note: z.string().trim().max(2000).optional(),
