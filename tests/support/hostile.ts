@@ -266,3 +266,71 @@ export const hostileId = fc.oneof(
   fc.maxSafeInteger().filter((n) => n > MAX_INT32).map(String),
   text.filter((s) => s.length > 0).map(percent),
 )
+
+const TINY = [Number.MIN_VALUE, 1e-300, 1e-9, 0.0001, 0.00049, 0.0005, 0.001, 0.004, 0.005, 0.0099]
+
+/** Values `field` accepts, at its edges: the smallest step above a bound, the bounds, the longest text in wide characters. */
+export function extreme(field: Field): fc.Arbitrary<unknown> {
+  const arbs: Array<fc.Arbitrary<unknown>> = []
+  if (field.nullable) arbs.push(fc.constant(null))
+  switch (field.t) {
+    case 'id':
+      arbs.push(fc.constantFrom(1, MAX_INT32))
+      break
+    case 'int':
+      arbs.push(fc.constantFrom(field.min, field.max), fc.integer({ min: field.min, max: field.max }))
+      break
+    case 'num': {
+      const low = TINY.map((t) => field.min + t).filter((n) => n > field.min || (!field.gt && n >= field.min))
+      const high = TINY.map((t) => field.max - t).filter((n) => n < field.max || (!field.lt && n <= field.max))
+      arbs.push(fc.constantFrom(...low, ...high, ...(field.gt ? [] : [field.min]), ...(field.lt ? [] : [field.max])),
+        fc.double({ min: field.min, max: field.max, minExcluded: !!field.gt, maxExcluded: !!field.lt, noNaN: true }))
+      break
+    }
+    case 'str': {
+      const max = field.max ?? 5000
+      const min = field.min ?? 0
+      arbs.push(
+        fc.tuple(fc.constantFrom('x', 'é', '中', '\u0301', 'ﷺ'), fc.constantFrom(max, min || 1)).map(([c, n]) => c.repeat(n)),
+        fc.constantFrom(max, min || 1).map((n) => `${'😀'.repeat(Math.floor(n / 2))}${n % 2 ? 'x' : ''}`),
+        fc.string({ unit: 'grapheme', minLength: min, maxLength: Math.min(max, 60) }).filter((s) => (field.trim ? s.trim() : s).length >= min && !s.includes('\u0000')),
+        fc.constantFrom('\u202Eright-to-left', 'a\u200Bb', '\'; drop table users; --', '<img src=x onerror=alert(1)>', '=1+1', '%s%n', '\uD800x')
+          .filter((s) => s.length <= max),
+      )
+      if (field.trim) arbs.push(fc.constant(`\t ${'y'.repeat(Math.max(min, 1))}\u00A0\n`))
+      break
+    }
+    case 'enum':
+      arbs.push(fc.constantFrom(...field.values))
+      break
+    case 'bool':
+      arbs.push(fc.boolean())
+      break
+    case 'email':
+      arbs.push(fc.constantFrom('EDGE.Person@Example.COM', ' edge@example.com ', `${'e'.repeat(60)}@${'d'.repeat(60)}.example.com`, 'o\'neil+tag@example.com'))
+      break
+    case 'date':
+      arbs.push(fc.constantFrom('1900-01-01', '2000-02-29', '9999-12-31', '2026-12-31'))
+      break
+    case 'datetime':
+      arbs.push(fc.constantFrom('1900-01-01T00:00:00Z', '2000-02-29T23:59:59.999+14:00', '2026-01-01T00:00:00-12:00'))
+      break
+    case 'array':
+      arbs.push(fc.array(extreme(field.of), { minLength: field.min ?? 0, maxLength: Math.min(field.max, 5) }),
+        extreme(field.of).map((v) => Array.from({ length: field.max }, () => v)))
+      break
+    case 'object':
+      arbs.push(extremeObject(field.fields, field.sample))
+      break
+    case 'custom':
+      return fc.constant(undefined)
+  }
+  return fc.oneof(...arbs)
+}
+
+/** A valid object with one to four fields (optional ones too) set to edge values. */
+export function extremeObject(fields: Fields, valid: Record<string, unknown>): fc.Arbitrary<Record<string, unknown>> {
+  const names = Object.keys(fields).filter((n) => fields[n]!.t !== 'custom')
+  return fc.array(fc.constantFrom(...names).chain((n) => extreme(fields[n]!).map((v): [string, unknown] => [n, v])), { minLength: 1, maxLength: 4 })
+    .map((edges) => ({ ...valid, ...Object.fromEntries(edges) }))
+}
