@@ -43,7 +43,7 @@ interface BodyRoute {
   /** No body (or null) is a valid one: an optional note. */
   emptyIsValid?: boolean
 }
-interface PathOnlyRoute { pathOnly: true, params: (r: ShopRecords) => Record<string, string | number> }
+interface PathOnlyRoute { pathOnly: true, params: (r: ShopRecords, shop: TestShop) => Record<string, string | number> }
 interface SpecialRoute { special: string }
 type FuzzEntry = BodyRoute | PathOnlyRoute | SpecialRoute
 

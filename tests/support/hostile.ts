@@ -189,7 +189,7 @@ export function invalidObject(fields: Fields, valid: Record<string, unknown>): f
     for (const [key, value] of junk) if (!(key in fields)) withOwn(body, key, value)
     for (const [key, value] of Object.entries(valid)) withOwn(body, key, value)
     for (const [key, value] of breaks) {
-      if (value === MISSING) delete body[key]
+      if (value === MISSING) Reflect.deleteProperty(body, key)
       else withOwn(body, key, value)
     }
     return body
