@@ -348,6 +348,13 @@ describe('hostile input', () => {
     expect([...missing, ...stale]).toEqual([])
   })
 
+  it('the shop\'s checksum notices a write (so that "unchanged" below means something)', async () => {
+    expect((await shop.owner.post('/api/suppliers', { name: uniqueName('checksum probe') })).status).toBe(201)
+    const now = await checksumNow()
+    expect(changedTables(baseline, now)).toEqual(['suppliers'])
+    baseline = now
+  })
+
   const writeRoutes = apiRoutes().filter((r) => r.method !== 'GET' && FUZZ[r.key] && !('special' in FUZZ[r.key]!))
   it.each(writeRoutes.map((r) => [r.key, r] as const))('%s answers 4xx to hostile input and writes nothing', async (_key, route) => {
     const entry = FUZZ[route.key] as BodyRoute | PathOnlyRoute
