@@ -441,6 +441,17 @@ describe('hostile input', () => {
     await assertUnchanged('the import dry runs')
   })
 
+  it('a deeply nested or very large JSON body answers 4xx and writes nothing', async () => {
+    const depth = 100_000
+    const nested = `{"name":"Deep","note":${'['.repeat(depth)}${']'.repeat(depth)}}`
+    const deep = await shop.owner.send('POST', '/api/suppliers', nested, { 'content-type': 'application/json' })
+    expect(deep.status).toBe(400)
+    const wide = encode({ name: 'Wide', note: Array.from({ length: 200_000 }, (_, i) => ({ [`k${i}`]: `v${i}` })) })
+    const big = await shop.owner.send('POST', '/api/suppliers', wide, { 'content-type': 'application/json' })
+    expect(big.status).toBe(400)
+    await assertUnchanged('the deep and wide bodies')
+  })
+
   it('the nightly task refuses every Authorization header but its token', async () => {
     const header = fc.oneof(
       fc.string({ unit: 'binary-ascii', maxLength: 80 }).map((s) => s.replace(/[^\x20-\x7E]/g, '')),
