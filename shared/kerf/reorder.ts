@@ -87,7 +87,10 @@ export function reorderFigures(input: ReorderInput): ReorderFigures {
   const z = serviceZ(input.serviceLevel)
   const safety = safetyStock(z, sd, input.leadTimeDays)
   const rop = reorderPoint(mean, input.leadTimeDays, safety)
-  const eoq = economicOrderQuantity(mean * 365, input.orderCostCents, input.unitCostCents * input.holdingRate)
+  // A type that costs nothing to hold (unit cost 0, such as free samples) has no economic order
+  // quantity: the suggestion is then the shortfall alone.
+  const holding = input.unitCostCents * input.holdingRate
+  const eoq = holding > 0 ? economicOrderQuantity(mean * 365, input.orderCostCents, holding) : 0
   const position = input.available + input.onOrder
   const below = mean > 0 && position <= rop
   // Order enough to bring the position back above the reorder point, and at least the EOQ.

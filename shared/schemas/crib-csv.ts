@@ -121,7 +121,7 @@ export function readCutterTypeCsv(text: string, lookups: TypeLookups): ImportRes
 export interface TypeForImport { id: number, name: string, cuttingDiameterMm: number, maxRegrinds: number, active: boolean }
 
 const CutterRow = z.object({
-  diameterMm: z.number({ error: 'enter a diameter in millimetres' }).gt(0, { error: 'must be more than 0' }).max(1000, { error: 'must be at most 1000 mm' }),
+  diameterMm: z.number({ error: 'enter a diameter in millimetres' }).min(0.001, { error: 'must be at least 0.001 mm' }).max(1000, { error: 'must be at most 1000 mm' }),
   status: z.enum(IMPORT_STATUSES, { error: 'must be in_crib, at_regrind or lost' }),
   regrindCount: z.number({ error: 'enter a whole number' }).int({ error: 'must be a whole number' }).min(0, { error: 'cannot be negative' }).max(20, { error: 'must be at most 20' }),
   lifeUsed: z.number({ error: 'enter a percentage like 40' }).min(0, { error: 'cannot be negative' }).max(10, { error: 'must be at most 1000' }),

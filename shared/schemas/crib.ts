@@ -3,6 +3,7 @@
 import { z } from 'zod'
 import { HELIXES, PROFILES, TOOL_MATERIALS } from '../kerf/geometry'
 import { Email } from './auth'
+import { Day } from './dates'
 
 export const IdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
@@ -10,8 +11,10 @@ export const IdParams = z.object({ id: z.coerce.number().int().positive().max(2_
 const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v)
 
 const Name = z.string({ error: 'enter a name' }).trim().min(1, { error: 'enter a name' }).max(120, { error: 'use at most 120 characters' })
+// Figures are stored at the precision of their numeric columns (lengths to 0.001 mm, minutes to
+// 0.01): a smaller figure would round to 0 there and break the column's check.
 const Length = z.number({ error: 'enter a length' })
-  .gt(0, { error: 'must be more than 0' })
+  .min(0.001, { error: 'must be at least 0.001 mm' })
   .max(1000, { error: 'must be at most 1000 mm' })
 const Whole = (what: string, min: number, max: number) => z.number({ error: `enter ${what}` })
   .int({ error: 'must be a whole number' })
@@ -24,11 +27,11 @@ const Cents = z.number({ error: 'enter an amount like 42.50' })
 
 export const CutterTypeFields = z.object({
   name: Name,
-  supplierId: z.number({ error: 'choose a supplier' }).int().positive().nullish(),
+  supplierId: z.number({ error: 'choose a supplier' }).int().positive().max(2_147_483_647).nullish(),
   supplierPartNumber: z.preprocess(blankToNull, z.string().trim().max(80, { error: 'use at most 80 characters' }).nullish()),
   profile: z.enum(PROFILES, { error: 'choose square end, ball nose, V-bit or O-flute' }),
   vAngleDeg: z.number({ error: 'enter the included angle in degrees' })
-    .gt(0, { error: 'must be between 0 and 180 degrees' }).lt(180, { error: 'must be between 0 and 180 degrees' }).nullish(),
+    .min(0.01, { error: 'must be between 0 and 180 degrees' }).max(179.99, { error: 'must be between 0 and 180 degrees' }).nullish(),
   helix: z.enum(HELIXES, { error: 'choose upcut, downcut, compression or straight' }),
   toolMaterial: z.enum(TOOL_MATERIALS, { error: 'choose solid carbide, carbide-tipped or HSS' }).optional(),
   flutes: Whole('the number of flutes', 1, 12),
@@ -37,7 +40,7 @@ export const CutterTypeFields = z.object({
   cuttingLengthMm: Length,
   overallLengthMm: Length,
   ratedLifeMinutes: z.number({ error: 'enter the rated life in minutes' })
-    .gt(0, { error: 'must be more than 0' }).max(1_000_000, { error: 'must be at most 1000000 minutes' }),
+    .min(0.01, { error: 'must be at least 0.01 minutes' }).max(1_000_000, { error: 'must be at most 1000000 minutes' }),
   maxRegrinds: Whole('the most regrinds', 0, 20).optional(),
   regrindDiameterLossMm: z.number({ error: 'enter a length' })
     .min(0, { error: 'cannot be negative' }).max(100, { error: 'must be at most 100 mm' }).optional(),
@@ -46,7 +49,7 @@ export const CutterTypeFields = z.object({
   regrindCostCents: Cents.optional(),
   packSize: Whole('the pack size', 1, 10_000).optional(),
   serviceLevel: z.number({ error: 'enter a percentage like 95' })
-    .min(0.5, { error: 'must be 50 % to 99.99 %' }).lt(1, { error: 'must be 50 % to 99.99 %' }).optional(),
+    .min(0.5, { error: 'must be 50 % to 99.99 %' }).max(0.9999, { error: 'must be 50 % to 99.99 %' }).optional(),
   leadTimeDaysOverride: Whole('a number of days', 0, 365).nullish(),
 })
 export type CutterTypeInput = z.input<typeof CutterTypeFields>
@@ -109,6 +112,6 @@ export const ImportBody = z.object({
 })
 
 export const CutLogExportQuery = z.object({
-  from: z.iso.date({ error: 'must be a date like 2026-01-31' }).optional(),
-  to: z.iso.date({ error: 'must be a date like 2026-01-31' }).optional(),
+  from: Day.optional(),
+  to: Day.optional(),
 }).refine((q) => !q.from || !q.to || q.from <= q.to, { path: ['to'], error: 'must be on or after the from date' })

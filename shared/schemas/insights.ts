@@ -1,8 +1,8 @@
 // Inputs of the insights routes: a range of UTC days, what to group cost by, and adopting
 // learned wear factors.
 import { z } from 'zod'
+import { Day } from './dates'
 
-const Day = z.iso.date({ error: 'must be a date like 2026-01-31' })
 const rangeFields = { from: Day.optional(), to: Day.optional() }
 const ordered = (q: { from?: string, to?: string }) => !q.from || !q.to || q.from <= q.to
 const orderMessage = { path: ['to'], error: 'must be on or after the from date' }

@@ -1,8 +1,12 @@
 // Inputs of purchase orders and deliveries, shared by the crib's forms and routes.
 import { z } from 'zod'
 
-const Id = z.number().int().positive()
+// Ids are PostgreSQL integers: a larger number must be refused here, not fail in the database.
+const Id = z.number().int().positive().max(2_147_483_647)
 const Quantity = z.number({ error: 'enter a quantity' }).int({ error: 'must be a whole number' }).positive({ error: 'must be at least 1' }).max(10_000)
+
+// Diameters are stored to 0.001 mm: anything smaller would round to 0 in the database.
+const Diameter = z.number({ error: 'enter a diameter in mm' }).min(0.001, { error: 'must be at least 0.001 mm' }).max(200, { error: 'must be at most 200 mm' })
 
 export const OrderIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
@@ -31,13 +35,13 @@ export const ReceiveOrderBody = z.object({
   lines: z.array(z.object({
     lineId: Id,
     quantity: z.number().int().min(0).max(10_000),
-    diameterMm: z.number().positive().max(200).optional(),
+    diameterMm: Diameter.optional(),
   })).min(1).max(200),
 })
 
 export const DeliveryBody = z.object({
-  typeId: z.number({ error: 'choose a cutter type' }).int().positive(),
+  typeId: z.number({ error: 'choose a cutter type' }).int().positive().max(2_147_483_647),
   quantity: Quantity.max(500, { error: 'at most 500 at once' }),
-  diameterMm: z.number().positive().max(200).optional(),
+  diameterMm: Diameter.optional(),
   note: z.string().trim().max(2000).optional(),
 })

@@ -33,7 +33,7 @@ export const SendBatchBody = z.object({
 export const ReceiveItem = z.object({
   cutterId: id('cutter'),
   diameterMm: z.number({ error: 'enter the measured diameter' })
-    .gt(0, { error: 'must be more than 0' })
+    .min(0.001, { error: 'must be at least 0.001 mm' })
     .max(1000, { error: 'must be at most 1000 mm' }),
   costCents: z.number({ error: 'enter the cost' }).int({ error: 'must be whole cents' })
     .min(0, { error: 'cannot be negative' }).max(10_000_000, { error: 'must be at most 100,000.00' }).optional(),

@@ -10,8 +10,9 @@ export const ShopUpdateBody = z.object({
   // null: every crib manager and owner.
   reportRecipients: z.array(Email).max(20, { error: 'at most 20 addresses' }).nullable().optional(),
   dailyAllClear: z.boolean().optional(),
-  lifeThreshold: z.number().gt(0, { error: 'must be more than 0 %' }).max(1.5, { error: 'at most 150 %' }).optional(),
-  regrindLifeFraction: z.number().gt(0, { error: 'must be more than 0 %' }).max(1, { error: 'at most 100 %' }).optional(),
+  // Stored to 0.001 (0.1 %): a smaller figure would round to 0 in the database.
+  lifeThreshold: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(1.5, { error: 'at most 150 %' }).optional(),
+  regrindLifeFraction: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(1, { error: 'at most 100 %' }).optional(),
   orderCostCents: z.number().int().min(0).max(10_000_000).optional(),
-  holdingRate: z.number().gt(0, { error: 'must be more than 0 %' }).max(5, { error: 'at most 500 %' }).optional(),
+  holdingRate: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(5, { error: 'at most 500 %' }).optional(),
 })

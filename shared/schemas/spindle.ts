@@ -1,29 +1,35 @@
 // Inputs of the spindle routes, shared with the phone page's forms.
 import { z } from 'zod'
 import { CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES } from '../kerf/spindle'
+import { EARLIEST_YEAR } from './dates'
 
 export { CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES }
 export type { CutOutcome } from '../kerf/spindle'
 
-export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
+// Ids are PostgreSQL integers: a larger number must be refused here, not fail in the database.
+const MAX_ID = 2_147_483_647
+
+export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })
 
 export const LoadBody = z.object({
-  machineId: z.number({ error: 'choose a machine' }).int().positive(),
+  machineId: z.number({ error: 'choose a machine' }).int().positive().max(MAX_ID),
 })
 
 export const CutLogBody = z.object({
   idempotencyKey: z.string().min(8, { error: 'must be 8 to 100 characters' }).max(100, { error: 'must be 8 to 100 characters' }),
-  materialId: z.number({ error: 'choose a material' }).int().positive(),
+  materialId: z.number({ error: 'choose a material' }).int().positive().max(MAX_ID),
   minutes: z.number({ error: 'enter the minutes cut' })
-    .gt(0, { error: 'must be more than 0' })
+    // Stored to 0.01 minute: anything shorter would round to 0 in the database.
+    .min(0.01, { error: 'must be at least 0.01 minutes' })
     .max(1440, { error: 'must be at most 24 hours (1440 minutes)' }),
   outcome: z.enum(CUT_OUTCOMES, { error: 'choose clean, melted, chip out, fuzzy or broken' }),
   rpm: z.number().int({ error: 'must be a whole number' }).positive({ error: 'must be more than 0' }).max(100_000).nullish(),
-  feedMmPerMin: z.number().positive({ error: 'must be more than 0' }).max(1_000_000).nullish(),
+  feedMmPerMin: z.number().min(0.01, { error: 'must be at least 0.01 mm/min' }).max(1_000_000).nullish(),
   note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
-  machineId: z.number().int().positive().nullish(),
+  machineId: z.number().int().positive().max(MAX_ID).nullish(),
   // When the cut finished; a log sent late from the phone's queue keeps its real time.
-  cutAt: z.iso.datetime({ offset: true, error: 'must be an ISO date and time' }).optional(),
+  cutAt: z.iso.datetime({ offset: true, error: 'must be an ISO date and time' })
+    .refine((s) => Number(s.slice(0, 4)) >= EARLIEST_YEAR, { error: `must be in ${EARLIEST_YEAR} or later` }).optional(),
 })
 export type CutLogInput = z.input<typeof CutLogBody>
 

@@ -42,6 +42,21 @@ export class Client {
   }
 
   get<T = any>(path: string) { return this.request<T>('GET', path) }
+  /** A request with a body sent as it is (any text, bytes or form) and headers of the caller's choosing. */
+  async send(method: string, path: string, body?: string | Uint8Array | FormData, headers: Record<string, string> = {}): Promise<Answer> {
+    const res = await fetch(baseUrl() + path, {
+      method, redirect: 'manual', body: body as BodyInit | undefined,
+      headers: { accept: 'application/json', ...headers, ...(this.cookie && { cookie: this.cookie }) },
+    })
+    const text = await res.text()
+    let parsed: unknown = text
+    try {
+      parsed = text ? JSON.parse(text) : null
+    } catch {
+      parsed = text
+    }
+    return { status: res.status, body: parsed, headers: res.headers }
+  }
   /** The raw response, for images and downloads, sent with this client's session. */
   raw(path: string): Promise<Response> {
     return fetch(baseUrl() + path, { redirect: 'manual', headers: this.cookie ? { cookie: this.cookie } : {} })

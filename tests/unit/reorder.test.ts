@@ -67,6 +67,13 @@ describe('a cutter type\'s reorder figures', () => {
     expect(f.suggestedQty).toBe(44)
   })
 
+  it('a type that costs nothing to hold (unit cost 0) has no EOQ: the suggestion is the shortfall in packs', () => {
+    // One cutter a day, reorder point 7, 3 in stock: short by 4, two packs of two.
+    const free = reorderFigures({ ...base, unitCostCents: 0, dailyLives: Array(90).fill(2.6) })
+    expect(free.economicOrderQuantity).toBe(0)
+    expect(free.suggestedQty).toBe(4)
+  })
+
   it('open orders count as stock', () => {
     const lives = Array(90).fill(2.6) // one cutter a day, reorder point 7
     expect(reorderFigures({ ...base, dailyLives: lives, available: 3, onOrder: 0 }).belowReorderPoint).toBe(true)

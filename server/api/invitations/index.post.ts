@@ -26,6 +26,12 @@ export default defineEventHandler(async (event) => {
     const token = await issueToken(tx, { shopId: owner.shopId, userId: user.id, purpose: 'invite', createdBy: owner.id, ttlMinutes: 7 * 24 * 60 })
     const shop = await tx.selectFrom('shops').select('name').where('id', '=', owner.shopId).executeTakeFirstOrThrow()
     return { user, token, shopName: shop.name }
+  }).catch((err: { code?: string }) => {
+    // The same new address invited twice at the same moment: the unique index on e-mail decides.
+    if (err.code === '23505') {
+      throw createError({ statusCode: 409, statusMessage: 'This address was invited a moment ago. Refresh the list of people to see it.' })
+    }
+    throw err
   })
   await sendMail(invitationMail({
     to: user.email, name: user.name, shopName, role: user.role, invitedBy: owner.name,

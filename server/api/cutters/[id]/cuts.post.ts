@@ -9,6 +9,8 @@ import type { Tx } from '../../../db/connect'
 const LOG_COLUMNS = ['id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
   'rpm', 'feed_mm_per_min', 'outcome', 'note', 'idempotency_key', 'cut_at'] as const
 
+const MAX_LIVES = 9999
+
 function badField(field: string, message: string): never {
   throw createError({ statusCode: 400, statusMessage: `${field}: ${message}`, data: { fields: { [field]: message } } })
 }
@@ -45,7 +47,10 @@ export default defineEventHandler(async (event) => {
       if (!machine) badField('machineId', 'no such machine in your shop')
     }
 
-    const added = roundLife(lifeAdded(body.minutes, material.wear_factor, cutter.rated_life_minutes, cutter.life_scale))
+    // life_added and life_used are numeric(10,6), at most 9999.999999 lives. Only a rated life
+    // entered far too short gets near that; the figures stop at the column's limit instead of
+    // failing the log (the cutter is long due by then).
+    const added = Math.min(MAX_LIVES, roundLife(lifeAdded(body.minutes, material.wear_factor, cutter.rated_life_minutes, cutter.life_scale)))
     const log = await tx.insertInto('cut_logs').values({
       shop_id: user.shopId,
       cutter_id: id,
@@ -67,7 +72,7 @@ export default defineEventHandler(async (event) => {
     const broken = body.outcome === 'broken' && cutter.status !== 'retired'
     await tx.updateTable('cutters')
       .set({
-        life_used: sql`life_used + ${added}`,
+        life_used: sql`least(life_used + ${added}, ${MAX_LIVES})`,
         minutes_this_life: sql`minutes_this_life + ${body.minutes}`,
         minutes_total: sql`minutes_total + ${body.minutes}`,
         updated_at: new Date(),

@@ -17,7 +17,7 @@ export default defineEventHandler(async (event) => {
   } else {
     fields = await readBody(event)
   }
-  const { kind, note } = parseWith(FlagFields)(fields ?? {})
+  const { kind, note } = validateInput(FlagFields, fields ?? {})
 
   await transaction(async (tx) => {
     const cutter = await lockCutter(tx, user.shopId, id)

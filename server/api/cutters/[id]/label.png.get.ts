@@ -4,7 +4,7 @@ import QRCode from 'qrcode'
 import { z } from 'zod'
 import { cutterPageUrl } from '#shared/kerf/labels'
 
-const Params = z.object({ id: z.coerce.number().int().positive() })
+const Params = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
