@@ -15,7 +15,7 @@ import { HELIXES, PROFILES, TOOL_MATERIALS } from '../../shared/kerf/geometry'
 import { ROLES } from '../../shared/kerf/roles'
 import { CUT_OUTCOMES, FLAG_KINDS } from '../../shared/kerf/spindle'
 import { changedTables, shopChecksum } from '../support/checksum'
-import { appDb, projectRoot } from '../support/db'
+import { appDb } from '../support/db'
 import {
   bool, custom, date, datetime, email, encode, extremeObject, type Fields, hostileBody, hostileId, hostileQuery, id, int, list, num,
   object, oneOf, str, type Sent,
@@ -239,7 +239,7 @@ let baseline: Record<string, string>
 const sentIdentities = { emails: new Set<string>(), shopNames: new Set<string>() }
 
 async function uploadFiles(): Promise<string[]> {
-  const dir = path.join(projectRoot, '.data/uploads/photos', String(shop.id))
+  const dir = path.join(process.env.KERFBOOK_TEST_UPLOADS_DIR!, 'photos', String(shop.id))
   return readdir(dir).catch(() => [])
 }
 
@@ -448,7 +448,9 @@ describe('hostile input', () => {
     expect(deep.status).toBe(400)
     const wide = encode({ name: 'Wide', note: Array.from({ length: 200_000 }, (_, i) => ({ [`k${i}`]: `v${i}` })) })
     const big = await shop.owner.send('POST', '/api/suppliers', wide, { 'content-type': 'application/json' })
-    expect(big.status).toBe(400)
+    // Refused by its length before it is read (server/middleware/body-limit.ts).
+    expect(big.status).toBe(413)
+    expect(big.body.message).toMatch(/too large: at most 256 KB/)
     await assertUnchanged('the deep and wide bodies')
   })
 

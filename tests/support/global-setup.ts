@@ -1,7 +1,7 @@
 // Before the server tests: a fresh database, migrated; the mail catcher; and the built app
 // (.output) started against both. Tests reach them through the environment variables set here.
 import { spawn, type ChildProcess } from 'node:child_process'
-import { existsSync } from 'node:fs'
+import { existsSync, rmSync } from 'node:fs'
 import path from 'node:path'
 import { startMailCatcher, type MailCatcher } from '../../scripts/mail-catcher'
 import { freshDatabase, migrate, projectRoot } from './db'
@@ -25,6 +25,11 @@ export async function setup() {
   await migrate(databaseUrl)
   catcher = await startMailCatcher({ smtpPort: SMTP_PORT, httpPort: MAIL_WEB_PORT })
 
+  // Photos of a folder of their own, emptied each run: shop ids start again with the fresh
+  // database, so files from an earlier run would otherwise seem to belong to today's shops.
+  const uploadsDir = path.join(projectRoot, `.data/test-uploads-${APP_PORT}`)
+  rmSync(uploadsDir, { recursive: true, force: true })
+
   const baseUrl = `http://127.0.0.1:${APP_PORT}`
   server = spawn(process.execPath, [entry], {
     cwd: projectRoot,
@@ -41,6 +46,7 @@ export async function setup() {
       // Lets the throttling tests speak for other addresses; nothing else sends the header.
       NUXT_TRUST_PROXY: 'true',
       NUXT_TASK_TOKEN: TASK_TOKEN,
+      NUXT_UPLOADS_DIR: uploadsDir,
     },
     stdio: ['ignore', 'inherit', 'inherit'],
   })
@@ -50,6 +56,7 @@ export async function setup() {
   process.env.KERFBOOK_TEST_DATABASE_URL = databaseUrl
   process.env.KERFBOOK_TEST_MAIL_URL = `http://127.0.0.1:${MAIL_WEB_PORT}`
   process.env.KERFBOOK_TEST_TASK_TOKEN = TASK_TOKEN
+  process.env.KERFBOOK_TEST_UPLOADS_DIR = uploadsDir
 }
 
 export async function teardown() {
