@@ -1,7 +1,7 @@
 // Headless Chromium for the browser journeys: Debian's build (scripts/test.sh installs it), a
 // phone or desktop context on the app under test, a screenshot of each step kept under
 // test-results/journeys/, and axe-core run on each page the journey reaches.
-import { mkdirSync } from 'node:fs'
+import { mkdirSync, rmSync } from 'node:fs'
 import path from 'node:path'
 import axe from 'axe-core'
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
@@ -21,9 +21,14 @@ export const DESKTOP = { viewport: { width: 1280, height: 800 } }
 const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']
 const BLOCKING = new Set(['serious', 'critical'])
 
+/** How long one journey may take, under load. */
+export const JOURNEY_TIMEOUT = 120_000
+
 export interface Journey {
   browser: Browser
   context: BrowserContext
+  /** Where the screenshots go. */
+  folder: string
   page: Page
   /** Screenshots the page (or `other`) as step `name` and checks it with axe; a serious or critical finding fails the test. */
   check: (name: string, other?: Page) => Promise<void>
@@ -33,11 +38,17 @@ export interface Journey {
 export async function startJourney(name: string, device: typeof PHONE | typeof DESKTOP): Promise<Journey> {
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: ARGS })
   const context = await browser.newContext({ ...device, baseURL: baseUrl(), locale: 'en-GB', timezoneId: 'UTC' })
-  context.setDefaultTimeout(10_000)
+  // Generous: the suite shares two cores with the other server tests.
+  context.setDefaultTimeout(20_000)
   const page = await context.newPage()
   const errors: string[] = []
   context.on('weberror', (err) => errors.push(err.error().message))
+  // Vue catches errors thrown in setup and watchers and only logs them: those count too.
+  context.on('console', (message) => {
+    if (message.type() === 'error') errors.push(`${message.text()} (${message.page()?.url()})`)
+  })
   const folder = path.join(projectRoot, 'test-results', 'journeys', name)
+  rmSync(folder, { recursive: true, force: true })
   mkdirSync(folder, { recursive: true })
   let step = 0
 
@@ -53,11 +64,11 @@ export async function startJourney(name: string, device: typeof PHONE | typeof D
     if (height > size.height) await target.setViewportSize(size)
     const found = await audit(target)
     expect.soft(found, `axe-core found serious or critical problems at "${stepName}" (${target.url()})`).toEqual([])
-    expect.soft(errors, `the page threw at "${stepName}"`).toEqual([])
+    expect.soft(errors.splice(0), `the page threw or logged errors by "${stepName}"`).toEqual([])
   }
 
   return {
-    browser, context, page, check,
+    browser, context, page, check, folder,
     close: () => browser.close(),
   }
 }
@@ -69,10 +80,35 @@ export async function audit(page: Page): Promise<string[]> {
     const run = await (window as unknown as { axe: typeof axe }).axe.run(document, { runOnly: { type: 'tag', values: tags } })
     return run.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, targets: v.nodes.map((n) => n.target.join(' ')) }))
   }, WCAG_TAGS)
-  if (process.env.AXE_DEBUG) console.log('AXE', page.url(), JSON.stringify(violations))
+  // KERFBOOK_AXE_ALL=1 also prints the moderate and minor findings, which do not fail the test.
+  if (process.env.KERFBOOK_AXE_ALL) {
+    for (const v of violations) console.log(`[axe] ${page.url()} ${v.impact} ${v.id}: ${v.help} -> ${v.targets.join(' | ')}`)
+  }
   return violations
     .filter((v) => v.impact && BLOCKING.has(v.impact))
     .map((v) => `${v.impact} ${v.id}: ${v.help} -> ${v.targets.slice(0, 8).join(' | ')}${v.targets.length > 8 ? ` (+${v.targets.length - 8} more)` : ''}`)
+}
+
+/** Opens each page again in a phone-sized window with the same session, waits for its heading,
+ *  and screenshots and checks it: the pages a desk journey visits must work on a phone too. */
+export async function atPhoneWidth(journey: Journey, visits: Array<{ name: string, path: string, heading: string | RegExp }>) {
+  const phone = await journey.browser.newContext({ ...PHONE, baseURL: baseUrl(), locale: 'en-GB', timezoneId: 'UTC', storageState: await journey.context.storageState() })
+  phone.setDefaultTimeout(20_000)
+  try {
+    const page = await phone.newPage()
+    for (const visit of visits) {
+      await open(page, visit.path)
+      await page.getByRole('heading', { level: 1, name: visit.heading }).waitFor().catch(async (err: Error) => {
+        await page.screenshot({ path: path.join(journey.folder, `failed-phone-${visit.name}.png`), fullPage: true })
+        throw err
+      })
+      // Nothing wider than the phone: a page that scrolls sideways hides its right-hand side.
+      await expect(page.evaluate(() => document.documentElement.scrollWidth), `${visit.path} is wider than the phone`).resolves.toBeLessThanOrEqual(PHONE.viewport.width)
+      await journey.check(`phone-${visit.name}`, page)
+    }
+  } finally {
+    await phone.close()
+  }
 }
 
 /** Waits until Nuxt has hydrated the server-rendered page, so that clicks reach their handlers. */

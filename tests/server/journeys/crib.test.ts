@@ -2,7 +2,7 @@
 // the delivery and opens its label sheet, then builds a batch of dull bits for the regrinder.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../../support/db'
-import { DESKTOP, open, signIn, startJourney, type Journey } from '../../support/browser'
+import { atPhoneWidth, DESKTOP, open, signIn, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
 import { addSteadyUse } from '../../support/demand'
 import { waitForMail } from '../../support/http'
 import { addRegrindFixture } from '../../support/regrind'
@@ -38,7 +38,7 @@ beforeAll(async () => {
 })
 afterAll(() => journey?.close())
 
-describe('the crib manager at a desk', () => {
+describe('the crib manager at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
   it('orders from a suggestion, receives the delivery with its labels, and batches dull bits for resharpening', async () => {
     const { page, check } = journey
     await signIn(page, shop.emails.crib, TEST_PASSWORD)
@@ -89,6 +89,7 @@ describe('the crib manager at a desk', () => {
     expect(gaps.every((gap) => gap >= 0), `gaps between code and text: ${gaps}`).toBe(true)
     await check('labels')
 
+    const labelsPath = new URL(page.url()).pathname + new URL(page.url()).search
     const db = appDb()
     try {
       const order = await db.selectFrom('purchase_orders').select(['status', 'supplier_id', 'created_by']).where('id', '=', orderId).where('shop_id', '=', shop.id).executeTakeFirstOrThrow()
@@ -128,5 +129,12 @@ describe('the crib manager at a desk', () => {
     } finally {
       await db2.destroy()
     }
+
+    await atPhoneWidth(journey, [
+      { name: 'reorder', path: '/crib/reorder', heading: 'Reorder' },
+      { name: 'order', path: `/crib/orders/${orderId}`, heading: number },
+      { name: 'labels', path: labelsPath, heading: '4 cutters' },
+      { name: 'regrind', path: '/crib/regrind', heading: 'Resharpen' },
+    ])
   })
 })

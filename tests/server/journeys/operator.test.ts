@@ -2,7 +2,7 @@
 // loads it into a machine, logs a cut and returns it to the crib.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../../support/db'
-import { audit, PHONE, signIn, open, startJourney, type Journey } from '../../support/browser'
+import { audit, PHONE, signIn, open, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
 import { makeShop, TEST_PASSWORD, type TestShop } from '../../support/shops'
 import { addSpindleFixture, type SpindleFixture } from '../../support/spindle'
 
@@ -17,7 +17,7 @@ beforeAll(async () => {
 })
 afterAll(() => journey?.close())
 
-describe('the operator on a phone', () => {
+describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
   it('loads a cutter, logs a cut and returns it, and each step shows on the page', async () => {
     const { page, check } = journey
     const cutter = fx.cutters[0]!

@@ -2,7 +2,7 @@
 // what the shop's cutting has cost.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../../support/db'
-import { DESKTOP, PHONE, hydrated, signIn, startJourney, type Journey } from '../../support/browser'
+import { atPhoneWidth, DESKTOP, PHONE, hydrated, signIn, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
 import { addSteadyUse } from '../../support/demand'
 import { waitForMail } from '../../support/http'
 import { makeShop, TEST_PASSWORD, type TestShop } from '../../support/shops'
@@ -25,7 +25,7 @@ beforeAll(async () => {
 })
 afterAll(() => journey?.close())
 
-describe('the owner at a desk', () => {
+describe('the owner at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
   it('invites a crib manager, who joins from the e-mail, and reads the insights', async () => {
     const { page, check, browser } = journey
     await signIn(page, shop.emails.owner, TEST_PASSWORD)
@@ -99,5 +99,10 @@ describe('the owner at a desk', () => {
     await expect(mdf.getByRole('cell').allInnerTexts()).resolves.toEqual(['MDF', '10.0', '$11.54', '$1.15'])
     await page.getByRole('region', { name: 'Wear by material' }).waitFor()
     await check('insights')
+
+    await atPhoneWidth(journey, [
+      { name: 'team', path: '/team', heading: 'Team' },
+      { name: 'insights', path: '/insights', heading: 'Insights' },
+    ])
   })
 })
