@@ -1,5 +1,6 @@
-// Three projects: unit (pure modules), server (the built app on the real PostgreSQL), and
-// nuxt (components in a Nuxt environment). `npm test` builds the app before this runs.
+// Three projects: unit (pure modules), server (the built app on the real PostgreSQL, including
+// the browser journeys in tests/server/journeys, which drive the same app in Chromium), and nuxt
+// (components in a Nuxt environment). `npm test` builds the app before this runs.
 import { defineConfig } from 'vitest/config'
 import { defineVitestProject } from '@nuxt/test-utils/config'
 import { fileURLToPath } from 'node:url'

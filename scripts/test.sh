@@ -1,10 +1,25 @@
 #!/usr/bin/env bash
-# `npm test`: installs what is needed, starts a PostgreSQL of its own (port 55433, separate data
-# folder), type-checks, lints, builds, and runs every test. Ends with the test runner's summary.
+# `npm test`: installs what is needed (Chromium for the browser journeys too), starts a PostgreSQL
+# of its own (port 55433, separate data folder), type-checks, lints, builds, and runs every test.
+# Ends with the test runner's summary.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
 bash scripts/install.sh
+
+# The browser journeys drive Debian's Chromium (playwright-core brings no browser of its own).
+if [ ! -x /usr/bin/chromium ]; then
+  echo "[test] /usr/bin/chromium not found: installing Debian's chromium package"
+  sudo=""
+  if [ "$(id -u)" -ne 0 ]; then
+    if command -v sudo >/dev/null 2>&1; then sudo="sudo"; else
+      echo "[test] not root and no sudo: install the 'chromium' package, then run this again" >&2
+      exit 1
+    fi
+  fi
+  $sudo apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq chromium >/dev/null
+fi
 
 export KERFBOOK_PG_PORT=${KERFBOOK_TEST_PG_PORT:-55433}
 export KERFBOOK_PG_FAST=1
