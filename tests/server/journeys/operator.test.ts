@@ -2,7 +2,9 @@
 // loads it into a machine, logs a cut and returns it to the crib.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../../support/db'
+import path from 'node:path'
 import { audit, PHONE, signIn, open, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
+import { baseUrl } from '../../support/http'
 import { makeShop, TEST_PASSWORD, type TestShop } from '../../support/shops'
 import { addSpindleFixture, type SpindleFixture } from '../../support/spindle'
 
@@ -74,6 +76,53 @@ describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
       expect(events.map((e) => e.kind)).toEqual(['loaded', 'cut_logged', 'returned'])
     } finally {
       await db.destroy()
+    }
+  })
+
+  it('a cut logged with no signal waits on the phone, signing out warns of it, and it arrives once when the signal is back', async () => {
+    // A context of its own: the failed requests while offline are expected here, not page errors.
+    const phone = await journey.browser.newContext({ ...PHONE, baseURL: baseUrl(), locale: 'en-GB', timezoneId: 'UTC', storageState: await journey.context.storageState() })
+    phone.setDefaultTimeout(20_000)
+    const cutter = fx.cutters[1]!
+    const db = appDb()
+    try {
+      const page = await phone.newPage()
+      await open(page, `/c/${cutter.code}`)
+      await page.getByRole('button', { name: 'Load into a machine' }).click()
+      await page.getByRole('button', { name: 'Big table with changer' }).click()
+      await page.getByText('In Big table with changer', { exact: true }).waitFor()
+
+      await phone.setOffline(true)
+      await page.getByRole('button', { name: 'Log a cut' }).click()
+      const form = page.getByRole('form', { name: 'Log a cut' })
+      await form.getByRole('button', { name: '15 minutes' }).click()
+      await form.getByRole('button', { name: 'MDF', exact: true }).click()
+      await form.getByRole('button', { name: /^Clean/ }).click()
+      await form.getByRole('button', { name: 'Log 15 min' }).click()
+      await page.getByText(/Saved 15 min in MDF on this phone/).waitFor()
+      await page.screenshot({ path: path.join(journey.folder, 'offline-cut-waiting.png'), fullPage: true })
+      await expect(audit(page)).resolves.toEqual([])
+
+      let warning = ''
+      page.once('dialog', async (dialog) => { warning = dialog.message(); await dialog.dismiss() })
+      await page.getByRole('banner').getByRole('button', { name: 'Sign out' }).click()
+      await expect.poll(() => warning).toMatch(/^1 cut log has not reached the server yet\. It stays on this device/)
+      // Dismissed: still signed in, on the same page, and nothing reached the server.
+      expect(new URL(page.url()).pathname).toBe(`/c/${cutter.code}`)
+      const logs = () => db.selectFrom('cut_logs').select(['minutes']).where('cutter_id', '=', cutter.id).execute()
+      await expect(logs()).resolves.toEqual([])
+
+      await phone.setOffline(false)
+      await expect.poll(logs, { timeout: 20_000 }).toEqual([{ minutes: 15 }])
+      // With nothing left waiting, signing out asks nothing.
+      page.once('dialog', (dialog) => { warning = `unexpected: ${dialog.message()}`; void dialog.dismiss() })
+      await page.getByRole('banner').getByRole('button', { name: 'Sign out' }).click()
+      await page.waitForURL((url) => url.pathname === '/login')
+      expect(warning).not.toMatch(/^unexpected/)
+      await expect(logs()).resolves.toEqual([{ minutes: 15 }])
+    } finally {
+      await db.destroy()
+      await phone.close()
     }
   })
 
