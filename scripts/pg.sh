@@ -28,15 +28,7 @@ find_bin() {
 
 install_server() {
   say "server binaries not found: installing Debian's postgresql package"
-  local sudo=""
-  if [ "$(id -u)" -ne 0 ]; then
-    if command -v sudo >/dev/null 2>&1; then sudo="sudo"; else
-      say "not root and no sudo: install the 'postgresql' package, then run this again" >&2
-      exit 1
-    fi
-  fi
-  $sudo apt-get update -qq
-  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq postgresql >/dev/null
+  bash "$(dirname "$0")/apt-install.sh" postgresql
 }
 
 bin=$(find_bin)

@@ -10,15 +10,7 @@ bash scripts/install.sh
 # The browser journeys drive Debian's Chromium (playwright-core brings no browser of its own).
 if [ ! -x /usr/bin/chromium ]; then
   echo "[test] /usr/bin/chromium not found: installing Debian's chromium package"
-  sudo=""
-  if [ "$(id -u)" -ne 0 ]; then
-    if command -v sudo >/dev/null 2>&1; then sudo="sudo"; else
-      echo "[test] not root and no sudo: install the 'chromium' package, then run this again" >&2
-      exit 1
-    fi
-  fi
-  $sudo apt-get update -qq
-  DEBIAN_FRONTEND=noninteractive $sudo apt-get install -y -qq chromium >/dev/null
+  bash scripts/apt-install.sh chromium
 fi
 
 export KERFBOOK_PG_PORT=${KERFBOOK_TEST_PG_PORT:-55433}

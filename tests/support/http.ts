@@ -7,6 +7,18 @@ export function baseUrl(): string {
   return url
 }
 
+/** The response's status, headers and body (JSON when it parses, else the text). */
+async function answer<T = any>(res: Response): Promise<Answer<T>> {
+  const text = await res.text()
+  let parsed: unknown = text
+  try {
+    parsed = text ? JSON.parse(text) : null
+  } catch {
+    parsed = text
+  }
+  return { status: res.status, body: parsed as T, headers: res.headers }
+}
+
 export class Client {
   private cookie = ''
   constructor(private readonly extraHeaders: Record<string, string> = {}) {}
@@ -31,14 +43,7 @@ export class Client {
       // An emptied cookie (sign-out) clears ours.
       this.cookie = pair.endsWith('=') ? '' : pair
     }
-    const text = await res.text()
-    let parsed: unknown = text
-    try {
-      parsed = text ? JSON.parse(text) : null
-    } catch {
-      parsed = text
-    }
-    return { status: res.status, body: parsed as T, headers: res.headers }
+    return answer<T>(res)
   }
 
   get<T = any>(path: string) { return this.request<T>('GET', path) }
@@ -48,14 +53,7 @@ export class Client {
       method, redirect: 'manual', body: body as BodyInit | undefined,
       headers: { accept: 'application/json', ...headers, ...(this.cookie && { cookie: this.cookie }) },
     })
-    const text = await res.text()
-    let parsed: unknown = text
-    try {
-      parsed = text ? JSON.parse(text) : null
-    } catch {
-      parsed = text
-    }
-    return { status: res.status, body: parsed, headers: res.headers }
+    return answer(res)
   }
   /** The raw response, for images and downloads, sent with this client's session. */
   raw(path: string): Promise<Response> {
