@@ -150,6 +150,42 @@ async function stopApp(): Promise<void> {
   await exited
 }
 
+// ---- CPU time, from /proc: robust where wall-clock rates are not (other work on the machine) ----
+
+const TICK_MS = 10 // USER_HZ is 100 on Linux
+function procTimes(pid: number): { own: number, children: number, ppid: number } | undefined {
+  try {
+    // Fields after the command name: state ppid ... utime(14) stime(15) cutime(16) cstime(17)
+    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8')
+    const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
+    return { ppid: Number(f[1]), own: (Number(f[11]) + Number(f[12])) * TICK_MS, children: (Number(f[13]) + Number(f[14])) * TICK_MS }
+  } catch {
+    return undefined
+  }
+}
+
+/** CPU milliseconds of the PostgreSQL server: the postmaster, its live children and those it has reaped. */
+function postgresCpu(postmaster: number): number {
+  const main = procTimes(postmaster)
+  if (!main) return Number.NaN
+  let total = main.own + main.children
+  for (const entry of readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue
+    const t = procTimes(Number(entry))
+    if (t?.ppid === postmaster) total += t.own
+  }
+  return total
+}
+
+interface Cpu { app: number, postgres: number, load: number }
+/** CPU in ms so far: the app, PostgreSQL, and the load generator (this process and the pgbench runs it has waited for). */
+function cpuNow(postmaster: number): Cpu {
+  const self = procTimes(process.pid)!
+  return { app: app?.pid ? procTimes(app.pid)?.own ?? 0 : 0, postgres: postgresCpu(postmaster), load: self.own + self.children }
+}
+const cpuSince = (a: Cpu, b: Cpu, requests: number) =>
+  `CPU per log: app ${((b.app - a.app) / requests).toFixed(2)} ms, PostgreSQL ${((b.postgres - a.postgres) / requests).toFixed(2)} ms, load generator ${((b.load - a.load) / requests).toFixed(2)} ms`
+
 // ---- figures -----------------------------------------------------------------------------------
 
 interface Figures { requests: number, seconds: number, perSecond: number, p50: number, p95: number, p99: number, failed: number }
@@ -277,15 +313,23 @@ async function main() {
     const f = await makeShop(db)
     say(`shop ${f.shopId}: cutters ${f.cutters[0]}..${f.cutters.at(-1)}, ${f.materials.length} materials`)
 
+    // The postmaster's pid is the first line of postmaster.pid in the data folder.
+    const dataDir = (await sql<{ data_directory: string }>`show data_directory`.execute(db)).rows[0]!.data_directory
+    const postmaster = Number(readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0])
+
     await resetLogs(db, f.shopId)
     await runAutocannon(f, WARMUP)
+    let before = cpuNow(postmaster)
     const http = await runAutocannon(f, SECONDS)
+    const httpCpu = cpuSince(before, cpuNow(postmaster), http.requests + http.failed)
     await stopApp()
     await checkTotals(db, f, 'after the HTTP runs')
 
     await resetLogs(db, f.shopId)
     await runPgbench(f, WARMUP, false)
+    before = cpuNow(postmaster)
     const direct = await runPgbench(f, SECONDS, true)
+    const directCpu = cpuSince(before, cpuNow(postmaster), direct.requests + direct.failed)
     await checkTotals(db, f, 'after the pgbench runs')
 
     const row = (name: string, r: Figures) =>
@@ -295,6 +339,8 @@ async function main() {
     console.log(row(`(a) HTTP, autocannon -c ${CONNECTIONS}`, http))
     console.log(row(`(b) SQL, pgbench -c ${CONNECTIONS} -M ${PGBENCH_MODE}`, direct))
     console.log(`ratio (a)/(b): ${fmt(http.perSecond / direct.perSecond, 2)}`)
+    console.log(`(a) ${httpCpu}`)
+    console.log(`(b) ${directCpu}`)
     console.log(`load average before the run: ${load}; after: ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}; ${os.cpus().length} cores`)
     if (http.failed || direct.failed) throw new Error('some requests failed')
   } finally {
