@@ -209,26 +209,27 @@ function figures(latencies: number[], seconds: number, failed: number): Figures 
 async function runAutocannon(f: Fixture, seconds: number): Promise<Figures> {
   let n = 0
   const latencies: number[] = []
-  const instance = autocannon({
-    url: BASE,
-    connections: CONNECTIONS,
-    duration: seconds,
-    headers: { cookie: f.cookie, 'content-type': 'application/json', accept: 'application/json' },
-    requests: [{
-      method: 'POST',
-      setupRequest: (req) => {
-        const i = n++
-        const cutter = cutterAt(f, i)
-        req.path = `/api/cutters/${cutter}/cuts`
-        req.body = JSON.stringify({ idempotencyKey: `bench-${randomUUID()}`, materialId: materialFor(f, cutter), minutes: minutesFor(i), outcome: 'clean' })
-        return req
-      },
-    }],
+  const result = await new Promise<autocannon.Result>((resolve, reject) => {
+    const instance = autocannon({
+      url: BASE,
+      connections: CONNECTIONS,
+      duration: seconds,
+      headers: { cookie: f.cookie, 'content-type': 'application/json', accept: 'application/json' },
+      requests: [{
+        method: 'POST',
+        setupRequest: (req) => {
+          const i = n++
+          const cutter = cutterAt(f, i)
+          req.path = `/api/cutters/${cutter}/cuts`
+          req.body = JSON.stringify({ idempotencyKey: `bench-${randomUUID()}`, materialId: materialFor(f, cutter), minutes: minutesFor(i), outcome: 'clean' })
+          return req
+        },
+      }],
+    }, (err, res) => (err ? reject(err) : resolve(res)))
+    instance.on('response', (_client, status, _bytes, ms) => {
+      if (status === 201) latencies.push(ms)
+    })
   })
-  instance.on('response', (_client, status, _bytes, ms) => {
-    if (status === 201) latencies.push(ms)
-  })
-  const result = await instance
   return figures(latencies, result.duration, result.requests.total - latencies.length + result.errors + result.timeouts)
 }
 

@@ -22,7 +22,7 @@ export default defineNitroPlugin((nitro) => {
       // Known and explained: not the "Server Error" that hides an unexpected failure.
       error.unhandled = false
       setResponseStatus(event, 503, DATABASE_UNAVAILABLE)
-      setResponseHeader(event, 'retry-after', '5')
+      setResponseHeader(event, 'retry-after', 5)
     }
     return render?.(error, event)
   }

@@ -24,7 +24,7 @@ const opened = new Map<string, { user: { id: number, shopId: number }, until: nu
 
 async function sessionUserOf(event: H3Event): Promise<{ id: number, shopId: number } | undefined> {
   // Without the event: the per-request copy of the config re-reads the environment (costly).
-  const { name, maxAge } = useRuntimeConfig().session
+  const { name = 'nuxt-session', maxAge } = useRuntimeConfig().session
   const sealed = getCookie(event, name)
   // h3 also accepts the session in a header, which takes precedence: leave that case to it.
   if (!sealed || getRequestHeader(event, `x-${name.toLowerCase()}-session`)) return (await getUserSession(event)).user
@@ -35,7 +35,7 @@ async function sessionUserOf(event: H3Event): Promise<{ id: number, shopId: numb
   if (user) {
     const createdAt = (event.context.sessions?.[name] as { createdAt?: number } | undefined)?.createdAt ?? 0
     if (opened.size >= OPENED_MAX) opened.delete(opened.keys().next().value!)
-    opened.set(sealed, { user: { id: user.id, shopId: user.shopId }, until: Math.min(now + OPENED_TTL_MS, createdAt + maxAge * 1000) })
+    opened.set(sealed, { user: { id: user.id, shopId: user.shopId }, until: Math.min(now + OPENED_TTL_MS, maxAge ? createdAt + maxAge * 1000 : Infinity) })
   }
   return user
 }
