@@ -57,9 +57,10 @@ it('loses no cut log and counts none twice when PostgreSQL restarts under load',
       await new Promise((r) => setTimeout(r, 15))
     }
   })
-  // Restart once a quarter of the logs are in, while the rest are still being sent.
+  // Restart once an eighth of the logs are in, so that most are still to be sent while the
+  // database is away.
   const restart = (async () => {
-    while (results.length < LOGS / 4) await new Promise((r) => setTimeout(r, 20))
+    while (results.length < LOGS / 8) await new Promise((r) => setTimeout(r, 20))
     await pgScript('stop', PG_PORT)
     await new Promise((r) => setTimeout(r, 1000))
     await pgScript('start', PG_PORT)
