@@ -3,6 +3,7 @@
 // removed user loses access at once, whatever their cookie says.
 import type { H3Event } from 'h3'
 import { ROLE_LABELS, roleAtLeast, type Role } from '#shared/kerf/roles'
+import { PREPARED } from '../db/connect'
 
 export interface SessionUser {
   id: number
@@ -13,9 +14,34 @@ export interface SessionUser {
   lengthUnit: 'mm' | 'in'
 }
 
+// Opening the sealed session cookie (two key derivations and a decryption) was the largest
+// single cost of an ordinary request, and a browser sends the same cookie on every request, so
+// what it holds is kept for a minute (never past the session's own end), keyed by the sealed
+// value itself. Only the ids are kept: the person's role and standing are read afresh below.
+const OPENED_TTL_MS = 60_000
+const OPENED_MAX = 10_000
+const opened = new Map<string, { user: { id: number, shopId: number }, until: number }>()
+
+async function sessionUserOf(event: H3Event): Promise<{ id: number, shopId: number } | undefined> {
+  // Without the event: the per-request copy of the config re-reads the environment (costly).
+  const { name = 'nuxt-session', maxAge } = useRuntimeConfig().session
+  const sealed = getCookie(event, name)
+  // h3 also accepts the session in a header, which takes precedence: leave that case to it.
+  if (!sealed || getRequestHeader(event, `x-${name.toLowerCase()}-session`)) return (await getUserSession(event)).user
+  const now = Date.now()
+  const hit = opened.get(sealed)
+  if (hit && hit.until > now) return hit.user
+  const user = (await getUserSession(event)).user
+  if (user) {
+    const createdAt = (event.context.sessions?.[name] as { createdAt?: number } | undefined)?.createdAt ?? 0
+    if (opened.size >= OPENED_MAX) opened.delete(opened.keys().next().value!)
+    opened.set(sealed, { user: { id: user.id, shopId: user.shopId }, until: Math.min(now + OPENED_TTL_MS, maxAge ? createdAt + maxAge * 1000 : Infinity) })
+  }
+  return user
+}
+
 export async function requireUser(event: H3Event): Promise<SessionUser> {
-  const session = await getUserSession(event)
-  const sessionUser = session.user
+  const sessionUser = await sessionUserOf(event)
   if (!sessionUser) {
     throw createError({ statusCode: 401, statusMessage: 'Sign in to continue.' })
   }
@@ -24,6 +50,7 @@ export async function requireUser(event: H3Event): Promise<SessionUser> {
     .select(['id', 'shop_id', 'role', 'name', 'email', 'length_unit', 'active'])
     .where('id', '=', sessionUser.id)
     .where('shop_id', '=', sessionUser.shopId)
+    .modifyEnd(PREPARED)
     .executeTakeFirst()
   if (!row || !row.active) {
     await clearUserSession(event)

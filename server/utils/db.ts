@@ -6,7 +6,7 @@ let db: Db | undefined
 export function useDb(): Db {
   if (!db) {
     const config = useRuntimeConfig()
-    db = connect(config.databaseUrl, Number(config.databasePoolSize) || 10)
+    db = connect(config.databaseUrl, Number(config.databasePoolSize) || 20)
   }
   return db
 }

@@ -15,14 +15,21 @@ export async function lockCutter(tx: Tx, shopId: number, id: number) {
   return row
 }
 
-export async function recordEvent(tx: Tx, e: {
+export interface CutterEvent {
   shopId: number, cutterId: number, kind: CutterEventKind, from: CutterStatus | null, to: CutterStatus | null,
   machineId?: number | null, actorId: number | null, note?: string, photoId?: number | null,
-}): Promise<void> {
-  await tx.insertInto('cutter_events').values({
+}
+
+/** The cutter_events row of an event, for recordEvent and for routes that write it within a larger statement. */
+export function eventRow(e: CutterEvent) {
+  return {
     shop_id: e.shopId, cutter_id: e.cutterId, kind: e.kind, from_status: e.from, to_status: e.to,
     machine_id: e.machineId ?? null, actor_id: e.actorId, note: e.note ?? '', photo_id: e.photoId ?? null,
-  }).execute()
+  }
+}
+
+export async function recordEvent(tx: Tx, e: CutterEvent): Promise<void> {
+  await tx.insertInto('cutter_events').values(eventRow(e)).execute()
 }
 
 export const STATUS_SENTENCE: Record<CutterStatus, string> = {

@@ -1,22 +1,104 @@
 // Log a cut. The log, the cutter's life and minute totals, and the event are written in one
 // transaction under the cutter's row lock; the client's idempotency key makes a retry (after a
 // dropped connection, or from the phone's queue) return the first log instead of counting twice.
+// A new log is two statements inside the transaction, both prepared once per connection: one read
+// (the cutter, locked, with its type, the material, the machine and any log already sent with this
+// key) and one that writes the log, the cutter's totals and the event and answers the new totals.
 import { sql } from 'kysely'
 import { lifeAdded, roundLife } from '#shared/kerf/life'
 import { CutLogBody, CutterIdParams } from '#shared/schemas/spindle'
-import type { Tx } from '../../../db/connect'
+import type { z } from 'zod'
+import { PREPARED, type Tx } from '../../../db/connect'
+import type { SessionUser } from '../../../utils/auth'
 
 const LOG_COLUMNS = ['id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
   'rpm', 'feed_mm_per_min', 'outcome', 'note', 'idempotency_key', 'cut_at'] as const
-
+const KEY_USED = 'This idempotency key was already used for another cutter. Send the log with a new key.'
+// life_added and life_used are numeric(10,6), at most 9999.999999 lives. Only a rated life
+// entered far too short gets near that; the figures stop at the column's limit instead of
+// failing the log (the cutter is long due by then).
 const MAX_LIVES = 9999
 
 function badField(field: string, message: string): never {
   throw createError({ statusCode: 400, statusMessage: `${field}: ${message}`, data: { fields: { [field]: message } } })
 }
 
-async function findByKey(tx: Tx, shopId: number, key: string) {
-  return tx.selectFrom('cut_logs').select(LOG_COLUMNS).where('shop_id', '=', shopId).where('idempotency_key', '=', key).executeTakeFirst()
+/** The cutter (404 when not in the shop), locked until the transaction ends, with what the log needs. */
+async function readForLog(tx: Tx, shopId: number, id: number, body: z.output<typeof CutLogBody>) {
+  const row = await tx.selectFrom('cutters as c')
+    .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
+    .leftJoin('materials as m', (j) => j.onRef('m.shop_id', '=', 'c.shop_id').on('m.id', '=', body.materialId).on('m.active', '=', true))
+    .leftJoin('cut_logs as e', (j) => j.onRef('e.shop_id', '=', 'c.shop_id').on('e.idempotency_key', '=', body.idempotencyKey))
+    .select(['c.status', 'c.machine_id', 'c.regrind_count', 'c.life_scale', 'c.life_used', 'c.minutes_total', 't.rated_life_minutes',
+      'm.id as material_id', 'm.wear_factor', 'e.id as earlier_id'])
+    .$if(body.machineId != null, (q) => q.select((eb) => eb.exists(
+      eb.selectFrom('machines as mc').select('mc.id').whereRef('mc.shop_id', '=', 'c.shop_id').where('mc.id', '=', body.machineId!),
+    ).as('machine_found')))
+    .where('c.shop_id', '=', shopId).where('c.id', '=', id)
+    .forUpdate('c')
+    .modifyEnd(PREPARED)
+    .executeTakeFirst()
+  if (!row) notFound('cutter')
+  return row as typeof row & { machine_found?: boolean }
+}
+
+async function logCut(user: SessionUser, id: number, body: z.output<typeof CutLogBody>, cutAt: Date) {
+  return transaction(async (tx) => {
+    const cutter = await readForLog(tx, user.shopId, id, body)
+    if (cutter.earlier_id != null) {
+      const earlier = await tx.selectFrom('cut_logs').select(LOG_COLUMNS).where('id', '=', cutter.earlier_id).executeTakeFirstOrThrow()
+      if (earlier.cutter_id !== id) throw createError({ statusCode: 409, statusMessage: KEY_USED })
+      return { replay: true, log: earlier, totals: { life_used: cutter.life_used, minutes_total: cutter.minutes_total, status: cutter.status } }
+    }
+    if (cutter.material_id == null || cutter.wear_factor == null) badField('materialId', 'no such material in your shop')
+    if (body.machineId != null && !cutter.machine_found) badField('machineId', 'no such machine in your shop')
+    const machineId = body.machineId ?? cutter.machine_id
+
+    const added = Math.min(MAX_LIVES, roundLife(lifeAdded(body.minutes, cutter.wear_factor, cutter.rated_life_minutes, cutter.life_scale)))
+    const broken = body.outcome === 'broken' && cutter.status !== 'retired'
+    const event = { shopId: user.shopId, cutterId: id, machineId, actorId: user.id }
+    const events = [eventRow({ ...event, kind: 'cut_logged', from: cutter.status, to: cutter.status, note: `${body.minutes} min, ${body.outcome}` })]
+    if (broken) {
+      events.push(eventRow({ ...event, kind: 'flagged_broken', from: cutter.status, to: 'retired', note: body.note ?? 'Broke during a logged cut' }))
+    }
+    // One statement: the log (its trigger keeps the roll-ups), the cutter's totals and the events.
+    const written = await tx
+      .with('log', (db) => db.insertInto('cut_logs').values({
+        shop_id: user.shopId,
+        cutter_id: id,
+        machine_id: machineId,
+        operator_id: user.id,
+        material_id: cutter.material_id!,
+        minutes: body.minutes,
+        wear_factor: cutter.wear_factor!,
+        life_added: added,
+        regrind_count: cutter.regrind_count,
+        rpm: body.rpm ?? null,
+        feed_mm_per_min: body.feedMmPerMin ?? null,
+        outcome: body.outcome,
+        note: body.note ?? '',
+        idempotency_key: body.idempotencyKey,
+        cut_at: cutAt,
+      }).returning(LOG_COLUMNS))
+      .with('cutter', (db) => db.updateTable('cutters')
+        .set({
+          life_used: sql`least(life_used + ${added}, ${MAX_LIVES})`,
+          minutes_this_life: sql`minutes_this_life + ${body.minutes}`,
+          minutes_total: sql`minutes_total + ${body.minutes}`,
+          updated_at: new Date(),
+          ...(broken && { status: 'retired', machine_id: null, retired_reason: 'broken', flagged: 'broken', flagged_at: new Date() }),
+        })
+        .where('shop_id', '=', user.shopId).where('id', '=', id)
+        .returning(['life_used', 'minutes_total', 'status']))
+      .with('event', (db) => db.insertInto('cutter_events').values(events).returning('id'))
+      .selectFrom(['log', 'cutter'])
+      .selectAll('log')
+      .select(['cutter.life_used', 'cutter.minutes_total', 'cutter.status'])
+      .modifyEnd(PREPARED)
+      .executeTakeFirstOrThrow()
+    const { life_used, minutes_total, status, ...log } = written
+    return { replay: false, log, totals: { life_used, minutes_total, status } }
+  })
 }
 
 export default defineEventHandler(async (event) => {
@@ -26,81 +108,17 @@ export default defineEventHandler(async (event) => {
   const cutAt = body.cutAt ? new Date(body.cutAt) : new Date()
   if (cutAt.getTime() > Date.now() + 5 * 60_000) badField('cutAt', 'is in the future; check the phone\'s clock')
 
-  const result = await transaction(async (tx) => {
-    const cutter = await lockCutter(tx, user.shopId, id)
-    const earlier = await findByKey(tx, user.shopId, body.idempotencyKey)
-    if (earlier) {
-      if (earlier.cutter_id !== id) {
-        throw createError({ statusCode: 409, statusMessage: 'This idempotency key was already used for another cutter. Send the log with a new key.' })
-      }
-      return { replay: true, log: earlier }
-    }
-
-    const material = await tx.selectFrom('materials').select(['id', 'wear_factor'])
-      .where('shop_id', '=', user.shopId).where('id', '=', body.materialId).where('active', '=', true)
-      .executeTakeFirst()
-    if (!material) badField('materialId', 'no such material in your shop')
-    const machineId = body.machineId ?? cutter.machine_id
-    if (body.machineId) {
-      const machine = await tx.selectFrom('machines').select('id')
-        .where('shop_id', '=', user.shopId).where('id', '=', body.machineId).executeTakeFirst()
-      if (!machine) badField('machineId', 'no such machine in your shop')
-    }
-
-    // life_added and life_used are numeric(10,6), at most 9999.999999 lives. Only a rated life
-    // entered far too short gets near that; the figures stop at the column's limit instead of
-    // failing the log (the cutter is long due by then).
-    const added = Math.min(MAX_LIVES, roundLife(lifeAdded(body.minutes, material.wear_factor, cutter.rated_life_minutes, cutter.life_scale)))
-    const log = await tx.insertInto('cut_logs').values({
-      shop_id: user.shopId,
-      cutter_id: id,
-      machine_id: machineId,
-      operator_id: user.id,
-      material_id: material.id,
-      minutes: body.minutes,
-      wear_factor: material.wear_factor,
-      life_added: added,
-      regrind_count: cutter.regrind_count,
-      rpm: body.rpm ?? null,
-      feed_mm_per_min: body.feedMmPerMin ?? null,
-      outcome: body.outcome,
-      note: body.note ?? '',
-      idempotency_key: body.idempotencyKey,
-      cut_at: cutAt,
-    }).returning(LOG_COLUMNS).executeTakeFirstOrThrow()
-
-    const broken = body.outcome === 'broken' && cutter.status !== 'retired'
-    await tx.updateTable('cutters')
-      .set({
-        life_used: sql`least(life_used + ${added}, ${MAX_LIVES})`,
-        minutes_this_life: sql`minutes_this_life + ${body.minutes}`,
-        minutes_total: sql`minutes_total + ${body.minutes}`,
-        updated_at: new Date(),
-        ...(broken && { status: 'retired', machine_id: null, retired_reason: 'broken', flagged: 'broken', flagged_at: new Date() }),
-      })
-      .where('shop_id', '=', user.shopId).where('id', '=', id)
-      .execute()
-    await recordEvent(tx, {
-      shopId: user.shopId, cutterId: id, kind: 'cut_logged', from: cutter.status, to: cutter.status, machineId, actorId: user.id,
-      note: `${body.minutes} min, ${body.outcome}`,
-    })
-    if (broken) {
-      await recordEvent(tx, {
-        shopId: user.shopId, cutterId: id, kind: 'flagged_broken', from: cutter.status, to: 'retired', machineId, actorId: user.id,
-        note: body.note ?? 'Broke during a logged cut',
-      })
-    }
-    return { replay: false, log }
+  const result = await logCut(user, id, body, cutAt).catch((err: { code?: string }) => {
+    // The same key sent twice at once (a retry racing its first try, or two app instances):
+    // the unique index lets one in. Once more, the other finds that log and answers it, or 409
+    // when the key was used for another cutter.
+    if (err.code === '23505') return logCut(user, id, body, cutAt)
+    throw err
   }).catch((err: { code?: string }) => {
-    // The same key sent at once for two different cutters: the unique index decides.
-    if (err.code === '23505') {
-      throw createError({ statusCode: 409, statusMessage: 'This idempotency key was already used for another cutter. Send the log with a new key.' })
-    }
+    if (err.code === '23505') throw createError({ statusCode: 409, statusMessage: KEY_USED })
     throw err
   })
 
-  const totals = await useDb().selectFrom('cutters').select(['life_used', 'minutes_total', 'status'])
-    .where('shop_id', '=', user.shopId).where('id', '=', id).executeTakeFirstOrThrow()
   setResponseStatus(event, result.replay ? 200 : 201)
   const l = result.log
   return {
@@ -110,8 +128,8 @@ export default defineEventHandler(async (event) => {
       minutes: l.minutes, wearFactor: l.wear_factor, lifeAdded: l.life_added, rpm: l.rpm, feedMmPerMin: l.feed_mm_per_min,
       outcome: l.outcome, note: l.note, idempotencyKey: l.idempotency_key, cutAt: l.cut_at,
     },
-    lifeUsed: totals.life_used,
-    minutesTotal: totals.minutes_total,
-    status: totals.status,
+    lifeUsed: result.totals.life_used,
+    minutesTotal: result.totals.minutes_total,
+    status: result.totals.status,
   }
 })
