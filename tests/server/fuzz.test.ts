@@ -89,6 +89,7 @@ const uniqueName = (what: string) => `Fuzz ${what} ${randomUUID().slice(0, 8)}`
 // Every route that writes (POST, PATCH, PUT, DELETE), with what its body accepts.
 const FUZZ: Record<string, FuzzEntry> = {
   'POST /api/auth/login': { who: 'none', fields: { email: email(), password: str(200, { min: 1, trim: false }) }, valid: () => ({ email: 'fuzz-nobody@example.com', password: 'x' }) },
+  'ALL /api/[...path]': { special: 'answers 404 to any path no route answers, whatever it is sent (tests/server/routes.test.ts)' },
   'POST /api/auth/logout': { special: 'reads no input: answers 204 to anything, without a session or with one (checked below)' },
   'POST /api/auth/reset-request': { who: 'none', fields: { email: email() }, valid: () => ({ email: 'fuzz-nobody@example.com' }) },
   'POST /api/auth/reset': { who: 'none', fields: { token, password }, valid: () => ({ token: 'x'.repeat(43), password: 'a-long-enough-password' }) },

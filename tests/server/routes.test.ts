@@ -50,6 +50,18 @@ const TABLE: Record<string, Entry> = {
       expect(res.body.message).toBe('Wrong e-mail or password.')
     },
   },
+  'ALL /api/[...path]': {
+    public: 'answers 404 to any API path no route answers, signed in or not',
+    check: async (c) => {
+      for (const client of [noSession(), c.a.operator]) {
+        for (const [method, path] of [['GET', '/api/no-such-route'], ['POST', '/api/cutters/1/no-such-action'], ['DELETE', '/api/suppliers/1/no-such-thing']]) {
+          const res = await client.request(method!, path!, method === 'GET' ? undefined : {})
+          expect(res.status, `${method} ${path}`).toBe(404)
+          expect(res.body.message).toMatch(/^No such API route/)
+        }
+      }
+    },
+  },
   'POST /api/auth/logout': {
     public: 'signing out is harmless without a session',
     check: async () => expect((await noSession().post('/api/auth/logout')).status).toBe(204),
