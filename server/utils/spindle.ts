@@ -1,7 +1,10 @@
 // What the spindle routes share: locking a cutter of the shop for a change of state, and
 // writing the event that records who changed it and when.
+import type { Updateable } from 'kysely'
 import type { CutterEventKind, CutterStatus } from '../db/schema'
+import type { CuttersTable } from '../db/tables/spindle'
 import type { Tx } from '../db/connect'
+import type { SessionUser } from './auth'
 
 /** The cutter's row, locked until the transaction ends; 404 when it is not in the shop. */
 export async function lockCutter(tx: Tx, shopId: number, id: number) {
@@ -13,6 +16,33 @@ export async function lockCutter(tx: Tx, shopId: number, id: number) {
     .executeTakeFirst()
   if (!row) notFound('cutter')
   return row
+}
+
+export type LockedCutter = Awaited<ReturnType<typeof lockCutter>>
+
+/** One change to a locked cutter: the columns it sets and the event that tells it. */
+export interface CutterChange {
+  set: Omit<Updateable<CuttersTable>, 'updated_at'>
+  event: { kind: CutterEventKind, to: CutterStatus, machineId?: number | null, note?: string, photoId?: number | null }
+}
+
+/**
+ * Changes one cutter of the person's shop in one transaction: locks it (404 when it is not the
+ * shop's), lets `decide` refuse with a 409 or describe the change (nothing, for a harmless
+ * repeat), writes the change and its event, and answers the cutter as the pages show it.
+ */
+export async function changeCutter(
+  user: SessionUser, id: number, decide: (cutter: LockedCutter, tx: Tx) => CutterChange | undefined | Promise<CutterChange | undefined>,
+) {
+  await transaction(async (tx) => {
+    const cutter = await lockCutter(tx, user.shopId, id)
+    const change = await decide(cutter, tx)
+    if (!change) return
+    await tx.updateTable('cutters').set({ ...change.set, updated_at: new Date() })
+      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
+    await recordEvent(tx, { shopId: user.shopId, cutterId: id, from: cutter.status, actorId: user.id, ...change.event })
+  })
+  return requireCutterView(useDb(), user.shopId, { id })
 }
 
 export interface CutterEvent {

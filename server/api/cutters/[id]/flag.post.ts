@@ -19,24 +19,17 @@ export default defineEventHandler(async (event) => {
   }
   const { kind, note } = validateInput(FlagFields, fields ?? {})
 
-  await transaction(async (tx) => {
-    const cutter = await lockCutter(tx, user.shopId, id)
-    if (cutter.status !== 'in_crib' && cutter.status !== 'in_spindle') {
-      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}: only a cutter in the crib or a machine can be flagged.` })
-    }
-    const upload = photo ? await storePhoto(tx, { shopId: user.shopId, userId: user.id, maxBytes: PHOTO_MAX_BYTES, ...photo }) : undefined
-    const to = kind === 'dull' ? 'in_crib' : 'retired'
-    await tx.updateTable('cutters')
-      .set({
-        status: to, machine_id: null, flagged: kind, flagged_at: new Date(), updated_at: new Date(),
-        ...(kind === 'broken' && { retired_reason: 'broken' as const }),
-      })
-      .where('shop_id', '=', user.shopId).where('id', '=', id)
-      .execute()
-    await recordEvent(tx, {
-      shopId: user.shopId, cutterId: id, kind: kind === 'dull' ? 'flagged_dull' : 'flagged_broken', from: cutter.status, to,
-      machineId: cutter.machine_id, actorId: user.id, note, photoId: upload?.id,
-    })
-  })
-  return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
+  return {
+    cutter: await changeCutter(user, id, async (cutter, tx) => {
+      if (cutter.status !== 'in_crib' && cutter.status !== 'in_spindle') {
+        throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}: only a cutter in the crib or a machine can be flagged.` })
+      }
+      const upload = photo ? await storePhoto(tx, { shopId: user.shopId, userId: user.id, maxBytes: PHOTO_MAX_BYTES, ...photo }) : undefined
+      const to = kind === 'dull' ? 'in_crib' : 'retired'
+      return {
+        set: { status: to, machine_id: null, flagged: kind, flagged_at: new Date(), ...(kind === 'broken' && { retired_reason: 'broken' as const }) },
+        event: { kind: kind === 'dull' ? 'flagged_dull' : 'flagged_broken', to, machineId: cutter.machine_id, note, photoId: upload?.id },
+      }
+    }),
+  }
 })

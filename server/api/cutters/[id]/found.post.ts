@@ -6,14 +6,12 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'crib_manager')
   const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
   const { note } = await readValidatedBody(event, parseWith(NoteBody))
-  await transaction(async (tx) => {
-    const cutter = await lockCutter(tx, user.shopId, id)
-    if (cutter.status !== 'lost') {
-      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}, not marked lost, so it cannot be found.` })
-    }
-    await tx.updateTable('cutters').set({ status: 'in_crib', updated_at: new Date() })
-      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'found', from: 'lost', to: 'in_crib', actorId: user.id, note })
-  })
-  return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
+  return {
+    cutter: await changeCutter(user, id, (cutter) => {
+      if (cutter.status !== 'lost') {
+        throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}, not marked lost, so it cannot be found.` })
+      }
+      return { set: { status: 'in_crib' }, event: { kind: 'found', to: 'in_crib', note } }
+    }),
+  }
 })

@@ -7,20 +7,18 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'crib_manager')
   const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
   const { note } = await readValidatedBody(event, parseWith(NoteBody))
-  await transaction(async (tx) => {
-    const cutter = await lockCutter(tx, user.shopId, id)
-    if (cutter.flagged !== 'dull') {
-      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} is not flagged dull, so there is no flag to clear.` })
-    }
-    if (cutter.status === 'at_regrind' || cutter.status === 'retired') {
-      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}; its dull flag stays with that record.` })
-    }
-    await tx.updateTable('cutters').set({ flagged: null, flagged_at: null, updated_at: new Date() })
-      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, {
-      shopId: user.shopId, cutterId: id, kind: 'edited', from: cutter.status, to: cutter.status, actorId: user.id,
-      note: note ? `Dull flag cleared: ${note}` : 'Dull flag cleared',
-    })
-  })
-  return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
+  return {
+    cutter: await changeCutter(user, id, (cutter) => {
+      if (cutter.flagged !== 'dull') {
+        throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} is not flagged dull, so there is no flag to clear.` })
+      }
+      if (cutter.status === 'at_regrind' || cutter.status === 'retired') {
+        throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}; its dull flag stays with that record.` })
+      }
+      return {
+        set: { flagged: null, flagged_at: null },
+        event: { kind: 'edited', to: cutter.status, note: note ? `Dull flag cleared: ${note}` : 'Dull flag cleared' },
+      }
+    }),
+  }
 })
