@@ -1,6 +1,7 @@
 // At the spindle: looking a cutter up by its label, loading, logging cuts, returning and
 // flagging, with every minute counted once in the cutter's wear.
 import { randomUUID } from 'node:crypto'
+import { sql } from 'kysely'
 import { PNG } from 'pngjs'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../support/db'
@@ -38,7 +39,7 @@ function tinyPng(): Buffer {
 
 beforeAll(async () => {
   [shop, other] = await Promise.all([makeShop('Spindle'), makeShop('Elsewhere')])
-  ;[fx, otherFx] = await Promise.all([addSpindleFixture(shop.id, 12), addSpindleFixture(other.id, 1)])
+  ;[fx, otherFx] = await Promise.all([addSpindleFixture(shop.id, 13), addSpindleFixture(other.id, 1)])
   const list = (await shop.operator.get('/api/materials')).body as Array<{ id: number, name: string, wearFactor: number }>
   material = Object.fromEntries(list.map((m) => [m.name, m]))
 })
@@ -108,6 +109,45 @@ describe('idempotency', () => {
     const body = { idempotencyKey: key(), materialId: material.MDF!.id, minutes: 5, outcome: 'clean' }
     expect((await shop.operator.post(`/api/cutters/${fx.cutters[3]!.id}/cuts`, body)).status).toBe(201)
     expect((await shop.operator.post(`/api/cutters/${fx.cutters[4]!.id}/cuts`, body)).status).toBe(409)
+  })
+})
+
+describe('a cut logged while the cutter changes', () => {
+  it('is written for the cutter as it is then: the route reads again when its read went stale', async () => {
+    // The route reads the cutter without a lock and writes only if it is still as read. Here the
+    // test holds the cutter's row while eight logs arrive (each has read it and waits to write),
+    // retires the cutter and lets go: every log must notice, read again and log against a retired
+    // cutter, each counted once.
+    const c = fx.cutters[12]!
+    const minutes = [5, 6, 7, 8, 9, 10, 11, 12]
+    const db = appDb()
+    try {
+      let answers: Promise<Array<{ status: number }>> | undefined
+      await db.transaction().execute(async (tx) => {
+        await tx.selectFrom('cutters').select('id').where('id', '=', c.id).forUpdate().execute()
+        const holder = (await sql<{ pid: number }>`select pg_backend_pid() as pid`.execute(tx)).rows[0]!.pid
+        answers = Promise.all(minutes.map((m) => cut(shop.operator, c.id, { materialId: material.MDF!.id, minutes: m })))
+        // Every log has read the cutter and waits, behind this transaction's lock, to write.
+        await expect.poll(async () => Number((await sql<{ n: string }>`
+          with recursive waiting(pid) as (
+            select ${holder}::int
+            union select a.pid from pg_stat_activity a join waiting w on w.pid = any(pg_blocking_pids(a.pid)))
+          select count(*) - 1 as n from waiting`.execute(db)).rows[0]!.n),
+        { timeout: 10_000 }).toBe(minutes.length)
+        await tx.updateTable('cutters').set({ status: 'retired', retired_reason: 'worn', machine_id: null }).where('id', '=', c.id).execute()
+      })
+      expect((await answers!).map((a) => a.status)).toEqual(minutes.map(() => 201))
+      const cutter = await db.selectFrom('cutters').select(['status', 'minutes_total', 'life_used']).where('id', '=', c.id).executeTakeFirstOrThrow()
+      const logs = await db.selectFrom('cut_logs').select(['minutes', 'life_added']).where('cutter_id', '=', c.id).execute()
+      const events = await db.selectFrom('cutter_events').select(['kind', 'from_status', 'to_status']).where('cutter_id', '=', c.id).execute()
+      expect(cutter.status).toBe('retired')
+      expect(logs.map((l) => l.minutes).sort((x, y) => x - y)).toEqual(minutes)
+      expect(cutter.minutes_total).toBe(minutes.reduce((x, y) => x + y, 0))
+      expect(cutter.life_used).toBeCloseTo(logs.reduce((x, l) => x + l.life_added, 0), 6)
+      expect(events).toEqual(minutes.map(() => ({ kind: 'cut_logged', from_status: 'retired', to_status: 'retired' })))
+    } finally {
+      await db.destroy()
+    }
   })
 })
 
