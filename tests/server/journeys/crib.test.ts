@@ -131,6 +131,7 @@ describe('the crib manager at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
     }
 
     await atPhoneWidth(journey, [
+      { name: 'inventory', path: '/crib', heading: 'Inventory' },
       { name: 'reorder', path: '/crib/reorder', heading: 'Reorder' },
       { name: 'order', path: `/crib/orders/${orderId}`, heading: number },
       { name: 'labels', path: labelsPath, heading: '4 cutters' },
