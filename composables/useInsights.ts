@@ -22,6 +22,4 @@ export function useInsights(range: Ref<{ from: string, to: string }>, by: Ref<Co
   }
 }
 
-/** "$12.34" from cents, for tables and chart axes. */
-export const dollars = (cents: number | null | undefined) => (cents === null || cents === undefined ? '—' : `$${(cents / 100).toFixed(2)}`)
 export const percent = (fraction: number | null | undefined) => (fraction === null || fraction === undefined ? '—' : `${(fraction * 100).toFixed(1)} %`)

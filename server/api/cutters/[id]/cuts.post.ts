@@ -121,7 +121,13 @@ async function tryLogCut(user: SessionUser, id: number, body: z.output<typeof Cu
 
 async function logCut(user: SessionUser, id: number, body: z.output<typeof CutLogBody>, cutAt: Date) {
   for (let attempt = 0; attempt < 5; attempt++) {
-    const result = await tryLogCut(user, id, body, cutAt)
+    // Read again when the cutter changed since it was read, or when the same key was stored
+    // meanwhile (a retry racing its first try, or two app instances: the unique index lets one
+    // in). The next read finds that log and answers it, or 409 when it belongs to another cutter.
+    const result = await tryLogCut(user, id, body, cutAt).catch((err: { code?: string }) => {
+      if (err.code === '23505') return 'stale' as const
+      throw err
+    })
     if (result !== 'stale') return result
   }
   throw createError({ statusCode: 409, statusMessage: 'The cutter kept changing while the cut was being logged. Send the log again.' })
@@ -134,16 +140,7 @@ export default defineEventHandler(async (event) => {
   const cutAt = body.cutAt ? new Date(body.cutAt) : new Date()
   if (cutAt.getTime() > Date.now() + 5 * 60_000) badField('cutAt', 'is in the future; check the phone\'s clock')
 
-  const result = await logCut(user, id, body, cutAt).catch((err: { code?: string }) => {
-    // The same key sent twice at once (a retry racing its first try, or two app instances):
-    // the unique index lets one in. Once more, the other finds that log and answers it, or 409
-    // when the key was used for another cutter.
-    if (err.code === '23505') return logCut(user, id, body, cutAt)
-    throw err
-  }).catch((err: { code?: string }) => {
-    if (err.code === '23505') throw createError({ statusCode: 409, statusMessage: KEY_USED })
-    throw err
-  })
+  const result = await logCut(user, id, body, cutAt)
 
   setResponseStatus(event, result.replay ? 200 : 201)
   const l = result.log
