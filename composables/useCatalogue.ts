@@ -11,3 +11,9 @@ export function useCutterTypes(includeArchived: Ref<boolean>) {
 export function useSuppliers() {
   return useFetch('/api/suppliers', { key: 'suppliers', query: { archived: 'include' }, default: () => [] })
 }
+
+/** The active types to order or receive, by name: what the order pages offer. */
+export function useOrderableTypes() {
+  const { data } = useCutterTypes(ref(false))
+  return computed(() => data.value.map((t) => ({ typeId: t.id, typeName: t.name, supplierId: t.supplierId })))
+}
