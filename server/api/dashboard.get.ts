@@ -1,8 +1,7 @@
 // The home page's figures: cutters by status, the ones due for attention, and recent cutting.
 // Operators also see what they have loaded; everyone sees the same due list (server/utils/due.ts).
 import { sql } from 'kysely'
-
-const STATUSES = ['in_crib', 'in_spindle', 'at_regrind', 'retired', 'lost'] as const
+import { CUTTER_STATUSES, type CutterStatus } from '#shared/kerf/status'
 
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
@@ -30,7 +29,7 @@ export default defineEventHandler(async (event) => {
       .execute(),
   ])
 
-  const byStatus = Object.fromEntries(STATUSES.map((s) => [s, 0])) as Record<(typeof STATUSES)[number], number>
+  const byStatus = Object.fromEntries(CUTTER_STATUSES.map((s) => [s, 0])) as Record<CutterStatus, number>
   for (const row of byStatusRows) byStatus[row.status] = Number(row.n)
 
   return {
