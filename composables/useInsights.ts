@@ -4,6 +4,7 @@ import type { InternalApi } from 'nitropack/types'
 import type { CostGroup } from '#shared/schemas/insights'
 
 export type WearInsight = InternalApi['/api/insights/wear']['get']['materials'][number]
+export type WearTypeInsight = InternalApi['/api/insights/wear']['get']['types'][number]
 export type CostInsight = InternalApi['/api/insights/cost']['get']['rows'][number]
 export type SpendInsight = InternalApi['/api/insights/spend']['get']['months'][number]
 export type OutcomeInsight = InternalApi['/api/insights/outcomes']['get']['byMaterial'][number]
@@ -11,7 +12,15 @@ export type OutcomeInsight = InternalApi['/api/insights/outcomes']['get']['byMat
 export function useInsights(range: Ref<{ from: string, to: string }>, by: Ref<CostGroup>) {
   const query = computed(() => ({ from: range.value.from, to: range.value.to }))
   return {
-    wear: useFetch('/api/insights/wear', { key: 'insights-wear', query, default: () => ({ from: '', to: '', materials: [] }) }),
+    wear: useFetch('/api/insights/wear', {
+      key: 'insights-wear', query, default: () => ({ from: '', to: '', materials: [], types: [], scatter: null, referenceMaterialId: null }),
+    }),
+    // Cost per cut-hour by material for the wear ranking, whatever the cost table is grouped by.
+    materialCost: useFetch('/api/insights/cost', {
+      key: 'insights-cost-material', query: computed(() => ({ ...query.value, by: 'material' as const })),
+      transform: (res) => Object.fromEntries(res.rows.filter((r) => typeof r.key === 'number').map((r) => [r.key, r.costPerCutHourCents])) as Record<number, number | null>,
+      default: () => ({}) as Record<number, number | null>,
+    }),
     cost: useFetch('/api/insights/cost', {
       key: 'insights-cost', query: computed(() => ({ ...query.value, by: by.value })), default: () => ({ from: '', to: '', by: by.value, rows: [] }),
     }),

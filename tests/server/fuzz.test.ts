@@ -181,7 +181,7 @@ const FUZZ: Record<string, FuzzEntry> = {
     valid: () => ({ csv: 'type\nTwo-flute upcut 1/4" regrindable\n' }),
   },
   'POST /api/insights/wear/adopt': {
-    fields: { from: date({ optional: true }), to: date({ optional: true }), materialIds: list(id(), 1, 500) },
+    fields: { from: date({ optional: true }), to: date({ optional: true }), materialIds: list(id(), 1, 500), confirmWide: bool({ optional: true }) },
     valid: (r) => ({ materialIds: [r.materialId] }),
   },
   'POST /api/orders': {
