@@ -31,10 +31,7 @@ export async function learnedWear(db: Queryable, shopId: number, range: DateRang
   // later catalogue edit or a changed regrind fraction does not reshape old lives.
   const lives: SharpLife[] = []
   for (const r of rows) {
-    if (!r.rated_minutes || !(r.rated_minutes > 0)) continue
-    const cuts = []
-    for (const id in r.material_minutes) cuts.push({ materialId: Number(id), minutes: Number(r.material_minutes[id]) })
-    lives.push({ typeId: r.type_id, ratedLifeMinutes: r.rated_minutes, wornOut: r.worn_out, cuts })
+    if (r.rated_minutes && r.rated_minutes > 0) lives.push({ typeId: r.type_id, ratedLifeMinutes: r.rated_minutes, wornOut: r.worn_out, cuts: r.material_minutes })
   }
   const model = fitWearModel(lives, materials.map((m) => ({ materialId: m.id, startingFactor: m.wear_factor })))
   const report = describeWear(model, materials, types.map((t) => ({ id: t.id, name: t.name, ratedLifeMinutes: t.rated_life_minutes })))

@@ -20,7 +20,8 @@ export interface SharpLife {
   ratedLifeMinutes: number
   /** Ended by wear (dull, reground, retired worn or undersize); otherwise censored. */
   wornOut: boolean
-  cuts: readonly LifeCut[]
+  /** The minutes cut in each material: a list of cuts, or minutes by material id (as a roll-up keeps them). */
+  cuts: readonly LifeCut[] | Readonly<Record<string, number>>
 }
 
 export interface StartingFactor { materialId: number, startingFactor: number }
@@ -126,37 +127,59 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
   const typeIndex = new Map<number, number>()
   const finishedBy = new Int32Array(nm), censoredBy = new Int32Array(nm), minutesBy = new Float64Array(nm)
   const typeFinished: number[] = [], typeCensored: number[] = []
-  const start: number[] = [0], cols: number[] = [], values: number[] = [], types: number[] = [], failed: number[] = []
+  // Typed arrays grown by doubling: the history never sits in memory as objects twice.
+  let cols = new Int32Array(1024), values = new Float64Array(1024)
+  const start: number[] = [0], types: number[] = [], failed: number[] = []
+  let used = 0
   const scratch = new Float64Array(nm)
-  const touched: number[] = []
+  const touched = new Int32Array(nm)
+  const columnOfKey = new Map(materials.map((m, i) => [String(m.materialId), i]))
+  const missing = (id: unknown) => new RangeError(`material ${String(id)} has no starting factor`)
   for (const life of lives) {
     if (!(life.ratedLifeMinutes > 0)) throw new RangeError('a life needs a positive rated life')
-    for (const cut of life.cuts) {
-      const j = column.get(cut.materialId)
-      if (j === undefined) throw new RangeError(`material ${cut.materialId} has no starting factor`)
-      if (!(cut.minutes > 0)) continue
-      if (scratch[j] === 0) touched.push(j)
-      scratch[j]! += cut.minutes
+    let n = 0
+    if (Array.isArray(life.cuts)) {
+      for (const cut of life.cuts as readonly LifeCut[]) {
+        const j = column.get(cut.materialId)
+        if (j === undefined) throw missing(cut.materialId)
+        if (!(cut.minutes > 0)) continue
+        if (scratch[j] === 0) touched[n++] = j
+        scratch[j]! += cut.minutes
+      }
+    } else {
+      const byId = life.cuts as Record<string, number>
+      for (const id in byId) {
+        const j = columnOfKey.get(id)
+        if (j === undefined) throw missing(id)
+        const minutes = +byId[id]!
+        if (!(minutes > 0)) continue
+        if (scratch[j] === 0) touched[n++] = j
+        scratch[j]! += minutes
+      }
     }
-    if (!touched.length) continue
+    if (!n) continue
     let t = typeIndex.get(life.typeId)
     if (t === undefined) { t = typeIndex.size; typeIndex.set(life.typeId, t); typeFinished.push(0); typeCensored.push(0) }
     if (life.wornOut) typeFinished[t]!++
     else typeCensored[t]!++
-    for (const j of touched) {
+    if (used + n > cols.length) {
+      const c = new Int32Array(2 * cols.length + n); c.set(cols); cols = c
+      const v = new Float64Array(2 * values.length + n); v.set(values); values = v
+    }
+    for (let x = 0; x < n; x++) {
+      const j = touched[x]!
       if (life.wornOut) finishedBy[j]!++
       else censoredBy[j]!++
       minutesBy[j]! += scratch[j]!
-      cols.push(j)
-      values.push(scratch[j]! / life.ratedLifeMinutes)
+      cols[used] = j
+      values[used++] = scratch[j]! / life.ratedLifeMinutes
       scratch[j] = 0
     }
-    touched.length = 0
-    start.push(cols.length)
+    start.push(used)
     types.push(t)
     failed.push(life.wornOut ? 1 : 0)
   }
-  const flat: Flat = { start: Int32Array.from(start), col: Int32Array.from(cols), value: Float64Array.from(values), type: Int32Array.from(types), failed: Uint8Array.from(failed) }
+  const flat: Flat = { start: Int32Array.from(start), col: cols.subarray(0, used), value: values.subarray(0, used), type: Int32Array.from(types), failed: Uint8Array.from(failed) }
   const nt = typeIndex.size
   const finishedTotal = failed.reduce((a, b) => a + b, 0)
 
@@ -181,19 +204,21 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
   const cosN = nm + nt
   const cross = new Float64Array(cosN * cosN)
   {
+    const wStart = Float64Array.from(logStart, Math.exp)
     const pc = new Float64Array(cosN)
+    const ic = new Int32Array(nm + 1)
     for (let i = 0; i < nLives; i++) {
+      const q0 = flat.start[i]!, q1 = flat.start[i + 1]!
       let A = 0
-      for (let q = flat.start[i]!; q < flat.start[i + 1]!; q++) A += flat.value[q]! * Math.exp(logStart[flat.col[q]!]!)
+      for (let q = q0; q < q1; q++) A += flat.value[q]! * wStart[flat.col[q]!]!
+      let m = 0
+      for (let q = q0; q < q1; q++) { const j = flat.col[q]!; pc[j] = flat.value[q]! * wStart[j]! / A; ic[m++] = j }
       const tc = nm + flat.type[i]!
       pc[tc] = 1
-      for (let q = flat.start[i]!; q < flat.start[i + 1]!; q++) pc[flat.col[q]!] = flat.value[q]! * Math.exp(logStart[flat.col[q]!]!) / A
-      for (let q = flat.start[i]!; q <= flat.start[i + 1]!; q++) {
-        const x = q < flat.start[i + 1]! ? flat.col[q]! : tc
-        for (let r = flat.start[i]!; r <= flat.start[i + 1]!; r++) {
-          const y = r < flat.start[i + 1]! ? flat.col[r]! : tc
-          cross[x * cosN + y]! += pc[x]! * pc[y]!
-        }
+      ic[m++] = tc
+      for (let x = 0; x < m; x++) {
+        const a = ic[x]!, pa = pc[a]!, row = a * cosN
+        for (let y = 0; y < m; y++) cross[row + ic[y]!]! += pa * pc[ic[y]!]!
       }
     }
   }
@@ -297,7 +322,6 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
 
   /** The negative Hessian of the log posterior as a symmetric ml-matrix Matrix, with the gradient. */
   const curvature = (th: Float64Array, stride: number) => {
-    priorSigma = Math.exp(th[ps]!)
     const grad = new Float64Array(np)
     const hess = new Float64Array(np * np)
     // `evaluate` fills the upper triangle only (materials, then types, then σ); it mirrors here.
@@ -310,9 +334,13 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
   // Newton's method on the log posterior with a backtracking line search; where the Hessian is not
   // negative definite it is shifted (Levenberg) until it is. Returns whether it converged.
   let lastH: Matrix | null = null
-  const newton = (stride: number, tolerance: number, maxIterations: number) => {
+  // With `followScatter` the prior's σ follows each step (a fixed-point iteration, which converges
+  // linearly); without it the objective is fixed and Newton converges quadratically, so a step
+  // under `tolerance` leaves an error of about its square and the loop stops there.
+  const newton = (stride: number, tolerance: number, maxIterations: number, followScatter: boolean) => {
     for (let it = 0; it < maxIterations; it++) {
       iterations++
+      if (followScatter) priorSigma = Math.exp(theta[ps]!)
       const { value, grad, H } = curvature(theta, stride)
       lastH = H
       let shift = 0
@@ -330,7 +358,9 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
       let size = maxStep > 2 ? 2 / maxStep : 1
       const next = new Float64Array(np)
       let accepted = false
-      for (let tries = 0; tries < 40; tries++) {
+      // Close to the peak with a positive-definite Hessian a full Newton step is taken as it is.
+      if (!followScatter && shift === 0 && maxStep < 0.01) { next.set(theta); for (let a = 0; a < np; a++) next[a]! += step[a]!; accepted = true }
+      for (let tries = 0; tries < 40 && !accepted; tries++) {
         for (let a = 0; a < np; a++) next[a] = theta[a]! + size * step[a]!
         const v = evaluate(next, stride, null, null) - penalty(next)
         if (Number.isFinite(v) && v >= value - 1e-12 * Math.abs(value)) { accepted = true; break }
@@ -347,14 +377,15 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
   let iterations = 0
   let covariance: Matrix | null = null
   if (usable) {
-    // Most of the way on a sample of about 3,000 lives, then to the end on all of them: the
-    // sample only chooses where the full Newton steps start.
+    // First with the prior's σ following the fit, on every tenth life (scaled up) of a large
+    // history, to get close; then, with that σ fixed, Newton on all the lives until a step is under
+    // 1e-4 (what is left is of the order of 1e-8, far below the three decimals shown). The
+    // curvature of that last step gives the intervals.
     const stride = Math.floor(nLives / 3000)
-    if (stride > 1) newton(stride, 1e-3, 50)
-    // A step under 1e-6 in log terms changes no figure at its shown precision; the curvature of
-    // that last step gives the intervals.
-    converged = newton(1, 1e-6, 100)
-    const H = converged && lastH ? lastH : curvature(theta, 1).H
+    if (stride >= 10) newton(10 * stride, 1e-2, 50, true)
+    newton(Math.max(1, stride), stride > 1 ? 1e-3 : 1e-7, 100, true)
+    converged = newton(1, 1e-4, 100, false)
+    const H = converged && lastH ? lastH as Matrix : curvature(theta, 1).H
     if (new CholeskyDecomposition(H).isPositiveDefinite()) covariance = inverse(H)
   }
 
