@@ -2,12 +2,12 @@
 // what the shop's cutting has cost.
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { appDb } from '../../support/db'
-import { atPhoneWidth, DESKTOP, PHONE, hydrated, signIn, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
-import { addSteadyUse } from '../../support/demand'
-import { waitForMail } from '../../support/http'
-import { makeShop, TEST_PASSWORD, type TestShop } from '../../support/shops'
-import { addSpindleFixture } from '../../support/spindle'
+import { appDb } from '../support/db'
+import { atPhoneWidth, DESKTOP, PHONE, hydrated, signIn, startJourney, JOURNEY_TIMEOUT, type Journey } from '../support/browser'
+import { addSteadyUse } from '../support/demand'
+import { waitForMail } from '../support/http'
+import { makeShop, TEST_PASSWORD, type TestShop } from '../support/shops'
+import { addSpindleFixture } from '../support/spindle'
 
 let shop: TestShop
 let journey: Journey

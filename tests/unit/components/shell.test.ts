@@ -1,3 +1,4 @@
+// @vitest-environment nuxt
 // The shell in a Nuxt environment: navigation follows the role, and the home components show
 // the figures they are given (and say so plainly when there is nothing).
 import { mountSuspended } from '@nuxt/test-utils/runtime'

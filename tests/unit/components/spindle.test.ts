@@ -1,3 +1,4 @@
+// @vitest-environment nuxt
 // The spindle's glanceable parts in a Nuxt environment: the life bar's words and colours at the
 // resharpen mark and past a whole life, and the minutes left in the shop's common materials.
 import { mountSuspended } from '@nuxt/test-utils/runtime'

@@ -1,3 +1,4 @@
+// @vitest-environment nuxt
 // The cutter page's feeds card in a Nuxt environment: it asks for a material and machine until
 // it has them, then shows the figures, the warnings with their reasons and the cautions, and
 // hands the suggested rpm and feed to the cut log.

@@ -1,12 +1,12 @@
 // An operator at the spindle, on a phone: signs in, opens a cutter from its label's address,
 // loads it into a machine, logs a cut and returns it to the crib.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { appDb } from '../../support/db'
+import { appDb } from '../support/db'
 import path from 'node:path'
-import { audit, PHONE, signIn, open, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
-import { baseUrl } from '../../support/http'
-import { makeShop, TEST_PASSWORD, type TestShop } from '../../support/shops'
-import { addSpindleFixture, type SpindleFixture } from '../../support/spindle'
+import { audit, PHONE, signIn, open, startJourney, JOURNEY_TIMEOUT, type Journey } from '../support/browser'
+import { baseUrl } from '../support/http'
+import { makeShop, TEST_PASSWORD, type TestShop } from '../support/shops'
+import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
 
 let shop: TestShop
 let fx: SpindleFixture

@@ -1,13 +1,13 @@
 // A crib manager at a desk: turns a reorder suggestion into a purchase order, sends it, receives
 // the delivery and opens its label sheet, then builds a batch of dull bits for the regrinder.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { appDb } from '../../support/db'
-import { atPhoneWidth, DESKTOP, open, signIn, startJourney, JOURNEY_TIMEOUT, type Journey } from '../../support/browser'
-import { addSteadyUse } from '../../support/demand'
-import { waitForMail } from '../../support/http'
-import { addRegrindFixture } from '../../support/regrind'
-import { makeShop, TEST_PASSWORD, type TestShop } from '../../support/shops'
-import { addSpindleFixture, type SpindleFixture } from '../../support/spindle'
+import { appDb } from '../support/db'
+import { atPhoneWidth, DESKTOP, open, signIn, startJourney, JOURNEY_TIMEOUT, type Journey } from '../support/browser'
+import { addSteadyUse } from '../support/demand'
+import { waitForMail } from '../support/http'
+import { addRegrindFixture } from '../support/regrind'
+import { makeShop, TEST_PASSWORD, type TestShop } from '../support/shops'
+import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
 
 const TYPE = 'Two-flute upcut 1/4"'
 let shop: TestShop

@@ -1,3 +1,4 @@
+// @vitest-environment nuxt
 // The crib's small pieces in a Nuxt environment: status and due badges, the life bar, and a
 // history line for an event and for a cut (feed in the reader's unit).
 import { mountSuspended, registerEndpoint } from '@nuxt/test-utils/runtime'
