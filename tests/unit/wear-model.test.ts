@@ -5,7 +5,9 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { mulberry32 } from '../../server/db/seed/demo-history'
-import { fitWearModel, isWide, referenceMaterial, type SharpLife, type StartingFactor } from '../../shared/kerf/wear-model'
+import { fitWearModel, isWide, referenceMaterial, type LifeCut, type SharpLife, type StartingFactor } from '../../shared/kerf/wear-model'
+
+type ListedLife = SharpLife & { cuts: LifeCut[] }
 
 /** The demo seed's mulberry32: the same lives on every run. */
 const prng = mulberry32
@@ -95,11 +97,11 @@ const TRUTH = new Map([[1, 1], [2, 0.5], [3, 1.6], [4, 2.4]])
 const RATIO = new Map([[1, 0.8], [2, 1], [3, 1.2]])
 const START: StartingFactor[] = [{ materialId: 1, startingFactor: 1 }, { materialId: 2, startingFactor: 0.7 }, { materialId: 3, startingFactor: 1.3 }, { materialId: 4, startingFactor: 2 }]
 
-function simulate(count: number, cv: number, seed: number, mix: 'mixed' | 'collinear' = 'mixed'): SharpLife[] {
+function simulate(count: number, cv: number, seed: number, mix: 'mixed' | 'collinear' = 'mixed'): ListedLife[] {
   const rand = prng(seed)
   const gauss = normal(rand)
   const sigma = Math.sqrt(Math.log(1 + cv * cv))
-  const lives: SharpLife[] = []
+  const lives: ListedLife[] = []
   for (let n = 0; n < count; n++) {
     const typeId = 1 + Math.floor(rand() * 3)
     const rated = [600, 900, 1200][typeId - 1]! * (rand() < 0.3 ? 0.8 : 1)
