@@ -411,7 +411,8 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
       if (strong || together(j, l)) { groupOf[j]!.push(materials[l]!.materialId); groupOf[l]!.push(materials[j]!.materialId) }
       if (together(j, l)) { togetherOf[j]!.push(materials[l]!.materialId); togetherOf[l]!.push(materials[j]!.materialId) }
     }
-    for (let t = 0; t < nt; t++) {
+    // The reference's factor is fixed, so the types' ratios are measured against it, not confused with it.
+    for (let t = 0; t < nt && j !== ref; t++) {
       const strong = param[j]! >= 0 && Math.abs(correlation(param[j]!, pw + t)) >= TOLD_APART_CORRELATION
       if (strong || together(j, nm + t)) typeGroupOf[j]!.push(typeIds[t]!)
     }
