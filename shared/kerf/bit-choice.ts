@@ -384,3 +384,8 @@ export function resultsSentence(r: Ranked<unknown>['results'], movedBy: Ranked<u
   const moved = movedBy === 'up' ? ', which lifts it above the rules\' fit' : movedBy === 'down' ? ', which drops it below the rules\' fit' : ''
   return `This shop: ${share}${cleanup}${moved}.`
 }
+
+/** The kind of cut a bit is made for, for judging a bit already chosen (the cutter page). */
+export function cutKindFor(profile: Profile): CutKind {
+  return profile === 'v_bit' ? 'engrave' : profile === 'ball_nose' ? 'surface_3d' : 'profile'
+}
