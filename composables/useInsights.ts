@@ -8,6 +8,7 @@ export type WearTypeInsight = InternalApi['/api/insights/wear']['get']['types'][
 export type CostInsight = InternalApi['/api/insights/cost']['get']['rows'][number]
 export type SpendInsight = InternalApi['/api/insights/spend']['get']['months'][number]
 export type OutcomeInsight = InternalApi['/api/insights/outcomes']['get']['byMaterial'][number]
+export type CleanupInsight = InternalApi['/api/insights/cleanup']['get']['rows'][number]
 
 export function useInsights(range: Ref<{ from: string, to: string }>, by: Ref<CostGroup>) {
   const query = computed(() => ({ from: range.value.from, to: range.value.to }))
@@ -27,6 +28,9 @@ export function useInsights(range: Ref<{ from: string, to: string }>, by: Ref<Co
     spend: useFetch('/api/insights/spend', { key: 'insights-spend', query, default: () => ({ from: '', to: '', months: [] }) }),
     outcomes: useFetch('/api/insights/outcomes', {
       key: 'insights-outcomes', query, default: () => ({ from: '', to: '', logs: 0, broken: 0, breakageRate: null, byMaterial: [], byProfile: [] }),
+    }),
+    cleanup: useFetch('/api/insights/cleanup', {
+      key: 'insights-cleanup', query, default: () => ({ from: '', to: '', labourRateCentsPerHour: null, rows: [] }),
     }),
   }
 }

@@ -9,6 +9,7 @@ const ITEMS: NavItem[] = [
   { to: '/', label: 'Home', icon: 'home', role: 'operator', phone: true },
   { to: '/scan', label: 'Scan', icon: 'scan', role: 'operator', phone: true },
   { to: '/feeds', label: 'Feeds', icon: 'feeds', role: 'operator', phone: false },
+  { to: '/bit-choice', label: 'Which bit?', icon: 'feeds', role: 'operator', phone: false },
   { to: '/crib', label: 'Crib', icon: 'crib', role: 'crib_manager', phone: true },
   { to: '/reports', label: 'Reports', icon: 'report', role: 'crib_manager', phone: false },
   { to: '/insights', label: 'Insights', icon: 'insights', role: 'owner', phone: false },

@@ -94,6 +94,7 @@ async function main() {
       await sql`analyze cut_logs`.execute(tx)
       await sql`set local work_mem = '256MB'`.execute(tx)
       await sql`select rebuild_cut_log_roll_ups(${shop.id})`.execute(tx)
+      await sql`select rebuild_cut_cleanup_roll_up(${shop.id})`.execute(tx)
       return shop.id
     })
     await sql`analyze cut_logs; analyze cut_log_daily; analyze cut_sharp_lives; analyze cutters`.execute(db)

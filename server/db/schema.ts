@@ -7,7 +7,7 @@ import type {
   CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
   SuppliersTable, ToolingReportsTable,
 } from './tables/crib'
-import type { CutLogDailyTable, CutSharpLivesTable, WearFactorAdoptionsTable } from './tables/insights'
+import type { CutCleanupDailyTable, CutLogDailyTable, CutSharpLivesTable, WearFactorAdoptionsTable } from './tables/insights'
 
 export type * from './tables/shop'
 export type * from './tables/spindle'
@@ -35,5 +35,6 @@ export interface Database {
   tooling_reports: ToolingReportsTable
   cut_log_daily: CutLogDailyTable
   cut_sharp_lives: CutSharpLivesTable
+  cut_cleanup_daily: CutCleanupDailyTable
   wear_factor_adoptions: WearFactorAdoptionsTable
 }

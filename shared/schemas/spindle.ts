@@ -25,6 +25,9 @@ export const CutLogBody = z.object({
   outcome: z.enum(CUT_OUTCOMES, { error: 'choose clean, melted, chip out, fuzzy or broken' }),
   rpm: z.number().int({ error: 'must be a whole number' }).positive({ error: 'must be more than 0' }).max(100_000).nullish(),
   feedMmPerMin: z.number().min(0.01, { error: 'must be at least 0.01 mm/min' }).max(1_000_000).nullish(),
+  // Hand-finishing a part needed because of the edge (fuzz, melt, chip-out), in minutes.
+  cleanupMinutesPerPart: z.number({ error: 'enter the cleanup minutes per part' })
+    .min(0, { error: 'must be 0 or more' }).max(600, { error: 'must be at most 600 minutes' }).nullish(),
   note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
   machineId: z.number().int().positive().max(MAX_ID).nullish(),
   // When the cut finished; a log sent late from the phone's queue keeps its real time.

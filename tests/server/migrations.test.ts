@@ -7,7 +7,7 @@ import { down as dropChipLoads, up as addChipLoads } from '../../migrations/2026
 
 const TABLES = ['shops', 'users', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
   'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
-  'regrind_batch_items', 'tooling_reports', 'chip_loads', 'cut_log_daily', 'cut_sharp_lives', 'wear_factor_adoptions']
+  'regrind_batch_items', 'tooling_reports', 'chip_loads', 'cut_log_daily', 'cut_sharp_lives', 'cut_cleanup_daily', 'wear_factor_adoptions']
 
 let url: string
 let db: Db

@@ -6,6 +6,8 @@ export const DEMO_SHOP = {
   name: 'Millrace Signs & Displays',
   lifeThreshold: 0.9,
   regrindLifeFraction: 0.8,
+  // Hand-finishing, $42.00 an hour: prices the cleanup minutes on the owner's insights.
+  labourRateCentsPerHour: 4200,
   reportRecipients: ['crib@example.com', 'owner@example.com'],
 }
 

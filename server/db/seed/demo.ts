@@ -9,7 +9,7 @@ import { startingChipLoadRows } from '../../utils/spindle/chip-loads'
 import {
   CRIB_EMAIL, CUTTER_TYPES, DEMO_PASSWORD, DEMO_SHOP, MACHINES, MATERIALS, OPEN_ORDER, PEOPLE, REGRIND_SUPPLIER, SUPPLIERS,
 } from './demo-data'
-import { BATCH_SENDS, DAY, OPEN_BATCH_SEND, OPEN_ORDER_DAY, ORDER_DAYS, Random, TURNAROUND, mulberry32, simulateYear, type History } from './demo-history'
+import { BATCH_SENDS, DAY, cleanupMinutes, OPEN_BATCH_SEND, OPEN_ORDER_DAY, ORDER_DAYS, Random, TURNAROUND, mulberry32, simulateYear, type History } from './demo-history'
 
 export { DEMO_PASSWORD, DEMO_SHOP, PEOPLE as DEMO_PEOPLE } from './demo-data'
 
@@ -56,7 +56,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
 
   const shop = await tx.insertInto('shops').values({
     name: DEMO_SHOP.name, report_recipients: DEMO_SHOP.reportRecipients, life_threshold: DEMO_SHOP.lifeThreshold,
-    regrind_life_fraction: DEMO_SHOP.regrindLifeFraction, created_at: setUp,
+    regrind_life_fraction: DEMO_SHOP.regrindLifeFraction, labour_rate_cents_per_hour: DEMO_SHOP.labourRateCentsPerHour, created_at: setUp,
   }).returning('id').executeTakeFirstOrThrow()
   const shopId = shop.id
 
@@ -150,6 +150,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
     shop_id: shopId, cutter_id: cutterId(c.cutter), machine_id: machineId(c.machine), operator_id: userId(c.operator),
     material_id: materialId(c.material.name), minutes: c.minutes, wear_factor: c.material.wearFactor, life_added: c.lifeAdded,
     regrind_count: c.regrindCount, rpm: c.rpm, feed_mm_per_min: c.feed, outcome: c.outcome, note: c.note,
+    cleanup_minutes_per_part: cleanupMinutes(c, h.cutters[c.cutter]!.type, n),
     idempotency_key: `seed-cut-${String(n + 1).padStart(5, '0')}`, cut_at: new Date(c.at), created_at: new Date(c.at),
   })))
   const events = [...h.events].sort((a, b) => a.at - b.at)

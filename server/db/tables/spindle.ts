@@ -87,6 +87,8 @@ export interface CutLogsTable {
   rpm: number | null
   feed_mm_per_min: number | null
   outcome: CutOutcome
+  /** Hand-finishing minutes per part that the edge cost; null when not given. */
+  cleanup_minutes_per_part: number | null
   note: Generated<string>
   idempotency_key: string
   cut_at: Stamp
