@@ -17,6 +17,7 @@ export interface ShopsTable {
   regrind_life_fraction: Generated<number>
   order_cost_cents: Generated<number>
   holding_rate: Generated<number>
+  review_interval_days: Generated<number>
   created_at: CreatedAt
 }
 

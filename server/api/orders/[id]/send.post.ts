@@ -12,11 +12,13 @@ export default defineEventHandler(async (event) => {
     if (!view.supplier?.email) {
       throw createError({ statusCode: 400, statusMessage: 'The supplier has no e-mail address. Add one in Suppliers, then send again.' })
     }
-    const shop = await tx.selectFrom('shops').select('name').where('id', '=', user.shopId).executeTakeFirstOrThrow()
-    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: new Date() })
+    const shop = await orderLetterhead(tx, user.shopId)
+    const sentAt = new Date()
+    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: sentAt })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
+    const pdf = await orderPdf({ ...view, status: 'sent', sentAt }, shop)
     try {
-      await sendMail(orderMail(view, shop.name, user.name))
+      await sendMail(orderMail(view, shop, user.name, pdf))
     } catch (err) {
       throw createError({ statusCode: 502, statusMessage: `The mail server did not take the order: ${err instanceof Error ? err.message : err}. Nothing was sent; try again.` })
     }
