@@ -22,8 +22,8 @@ describe('days without a sharp cutter', () => {
       { at: at(3), from: 'in_crib', to: 'at_regrind' },
       { at: at(6, 9), from: 'at_regrind', to: 'in_crib' },
     ]
-    expect([...daysWithoutSharp(changes, d(0), d(8))]).toEqual([d(3), d(4), d(5), d(6)])
-    // Before the first cutter arrived there was none.
+    expect([...daysWithoutSharp(changes, d(1), d(8))]).toEqual([d(3), d(4), d(5), d(6)])
+    // Before the first cutter arrived at noon on day 0 there was none.
     expect([...daysWithoutSharp(changes, d(-2), d(0))]).toEqual([d(-2), d(-1), d(0)])
   })
 
