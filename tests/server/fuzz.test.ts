@@ -48,7 +48,7 @@ interface SpecialRoute { special: string }
 type FuzzEntry = BodyRoute | PathOnlyRoute | SpecialRoute
 
 const note = str(2000, { optional: true })
-const orderLine = object({ typeId: id(), quantity: int(1, 10_000), unitCostCents: int(0, 100_000_000, { optional: true }) }, { typeId: 1, quantity: 1 })
+const orderLine = object({ typeId: id(), quantity: int(1, 10_000), unitCostCents: int(0, 10_000_000, { optional: true }) }, { typeId: 1, quantity: 1 })
 const cutterTypeFields: Fields = {
   name: str(120, { min: 1 }),
   supplierId: id({ optional: true, nullable: true }),
@@ -71,6 +71,10 @@ const cutterTypeFields: Fields = {
   packSize: int(1, 10_000, { optional: true }),
   serviceLevel: num(0.5, 0.9999, { optional: true }),
   leadTimeDaysOverride: int(0, 365, { optional: true, nullable: true }),
+  minOnHand: int(0, 10_000, { optional: true, nullable: true }),
+  maxOnHand: int(0, 10_000, { optional: true, nullable: true }),
+  sparesPerMachine: int(0, 100, { optional: true, nullable: true }),
+  doNotReorder: bool({ optional: true }),
 }
 const partial = (fields: Fields): Fields => Object.fromEntries(Object.entries(fields).map(([k, f]) => [k, { ...f, optional: true }]))
 const supplierFields: Fields = {
@@ -78,6 +82,7 @@ const supplierFields: Fields = {
   email: email({ optional: true, nullable: true }),
   phone: str(40, { optional: true, nullable: true }),
   leadTimeDays: int(0, 365, { optional: true }),
+  regrindTurnaroundDays: int(1, 365, { optional: true }),
   note,
 }
 // Tokens are 20 to 100 letters, digits, - and _.
@@ -212,7 +217,10 @@ const FUZZ: Record<string, FuzzEntry> = {
   'POST /api/regrind/batches/[id]/send': { fields: { emailSupplier: bool({ optional: true }) }, valid: () => ({}), params: (r) => ({ id: r.draftBatchId }) },
   'POST /api/regrind/batches/[id]/receive': {
     fields: {
-      items: list(object({ cutterId: id(), diameterMm: num(0.001, 1000), costCents: int(0, 10_000_000, { optional: true }) }, { cutterId: 1, diameterMm: 6 }), 1, 500),
+      items: list(object({
+        cutterId: id(), diameterMm: num(0.001, 1000, { optional: true }), scrapReason: str(500, { min: 1, optional: true }),
+        costCents: int(0, 10_000_000, { optional: true }),
+      }, { cutterId: 1, diameterMm: 6 }), 1, 500),
     },
     valid: (r) => ({ items: [{ cutterId: r.sentBatch.cutterId, diameterMm: 6.2 }] }),
     params: (r) => ({ id: r.sentBatch.id }),
