@@ -13,6 +13,8 @@ export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().
 
 export const LoadBody = z.object({
   machineId: z.number({ error: 'choose a machine' }).int().positive().max(MAX_ID),
+  /** The bit seen in a one-bit machine, to go back to the crib in the same step ("return that one and load this"). */
+  returnCutterId: z.number({ error: 'must be a cutter id' }).int().positive().max(MAX_ID).optional(),
 })
 
 export const CutLogBody = z.object({

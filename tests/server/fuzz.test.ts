@@ -73,6 +73,16 @@ const cutterTypeFields: Fields = {
   leadTimeDaysOverride: int(0, 365, { optional: true, nullable: true }),
 }
 const partial = (fields: Fields): Fields => Object.fromEntries(Object.entries(fields).map(([k, f]) => [k, { ...f, optional: true }]))
+const machineFields: Fields = {
+  name: str(80, { min: 1 }),
+  description: str(500, { optional: true }),
+  minRpm: int(1000, 100_000),
+  maxRpm: int(1000, 100_000),
+  pockets: int(0, 99),
+  spindlePowerKw: num(0.01, 1000, { optional: true, nullable: true }),
+  bedXMm: num(0.1, 100_000, { optional: true, nullable: true }),
+  bedYMm: num(0.1, 100_000, { optional: true, nullable: true }),
+}
 const supplierFields: Fields = {
   name: str(120, { min: 1 }),
   email: email({ optional: true, nullable: true }),
@@ -161,7 +171,11 @@ const FUZZ: Record<string, FuzzEntry> = {
     params: (r) => ({ id: r.cutters.spindle.id }),
   },
   'POST /api/cutters/[id]/flag': { special: 'JSON and multipart with a photo: its own test below' },
-  'POST /api/cutters/[id]/load': { fields: { machineId: id() }, valid: (r) => ({ machineId: r.machineId }), params: (r) => ({ id: r.cutters.crib.id }) },
+  'POST /api/machines': { fields: machineFields, valid: () => ({ name: uniqueName('machine'), minRpm: 6000, maxRpm: 24000, pockets: 8 }) },
+  'PATCH /api/machines/[id]': { fields: partial(machineFields), valid: () => ({ name: uniqueName('machine renamed') }), params: (r) => ({ id: r.machineId }) },
+  'POST /api/machines/[id]/retire': { pathOnly: true, params: (r) => ({ id: r.machineId }) },
+  'POST /api/machines/[id]/restore': { pathOnly: true, params: (r) => ({ id: r.machineId }) },
+  'POST /api/cutters/[id]/load': { fields: { machineId: id(), returnCutterId: id({ optional: true }) }, valid: (r) => ({ machineId: r.machineId }), params: (r) => ({ id: r.cutters.crib.id }) },
   'POST /api/cutters/[id]/return': { pathOnly: true, params: (r) => ({ id: r.cutters.spindle.id }) },
   'POST /api/cutters/[id]/found': { fields: { note }, valid: () => ({ note: 'Fuzz' }), params: (r) => ({ id: r.cutters.lost.id }), emptyIsValid: true },
   'POST /api/cutters/[id]/lost': { fields: { note }, valid: () => ({ note: 'Fuzz' }), params: (r) => ({ id: r.cutters.crib.id }), emptyIsValid: true },
@@ -225,6 +239,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   'GET /api/cutters/[id]/history': ['page', 'pageSize'],
   'GET /api/cutter-types': ['archived'],
   'GET /api/suppliers': ['archived'],
+  'GET /api/machines': ['retired'],
   'GET /api/feeds': ['typeId', 'materialId', 'machineId', 'cutterId', 'depthMm'],
   'GET /api/labels': ['ids', 'typeId', 'orderId'],
   'GET /api/export/cut-logs.csv': ['from', 'to'],

@@ -67,7 +67,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
   const crib = userId(CRIB_EMAIL)
 
   const machines = await tx.insertInto('machines').values(MACHINES.map((m) => ({
-    shop_id: shopId, name: m.name, description: m.description, min_rpm: m.minRpm, max_rpm: m.maxRpm, tool_changer: m.toolChanger, created_at: setUp,
+    shop_id: shopId, name: m.name, description: m.description, min_rpm: m.minRpm, max_rpm: m.maxRpm, pockets: m.pockets, created_at: setUp,
   }))).returning(['id', 'name']).execute()
   const machineId = (key: string) => idsBy(machines, 'name')(MACHINES.find((m) => m.key === key)!.name)
 

@@ -19,8 +19,13 @@ export interface MachinesTable {
   description: Generated<string>
   min_rpm: number
   max_rpm: number
-  tool_changer: Generated<boolean>
+  /** Tool-changer pockets; 0 is a manual collet holding one cutter at a time. */
+  pockets: Generated<number>
+  spindle_power_kw: number | null
+  bed_x_mm: number | null
+  bed_y_mm: number | null
   active: Generated<boolean>
+  retired_at: Date | null
   created_at: Stamp
 }
 
