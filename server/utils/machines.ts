@@ -14,7 +14,8 @@ export interface MachineView {
   bedYMm: number | null
   active: boolean
   retiredAt: Date | null
-  loaded: Array<{ id: number, code: string }>
+  /** Loaded cutters; `pocket` is the tool-changer pocket (null in a manual collet). */
+  loaded: Array<{ id: number, code: string, pocket: number | null }>
 }
 
 export async function listMachines(db: Queryable, shopId: number, opts: { id?: number, retired?: boolean } = {}): Promise<MachineView[]> {
@@ -25,9 +26,9 @@ export async function listMachines(db: Queryable, shopId: number, opts: { id?: n
   if (!opts.retired) q = q.where('active', '=', true)
   const rows = await q.orderBy('active', 'desc').orderBy('name').execute()
   if (!rows.length) return []
-  const loaded = await db.selectFrom('cutters').select(['id', 'code', 'machine_id'])
+  const loaded = await db.selectFrom('cutters').select(['id', 'code', 'machine_id', 'pocket'])
     .where('shop_id', '=', shopId).where('status', '=', 'in_spindle').where('machine_id', 'in', rows.map((r) => r.id))
-    .orderBy('code').execute()
+    .orderBy('pocket').orderBy('code').execute()
   return rows.map((m) => ({
     id: m.id,
     name: m.name,
@@ -40,7 +41,7 @@ export async function listMachines(db: Queryable, shopId: number, opts: { id?: n
     bedYMm: m.bed_y_mm,
     active: m.active,
     retiredAt: m.retired_at,
-    loaded: loaded.filter((c) => c.machine_id === m.id).map((c) => ({ id: c.id, code: c.code })),
+    loaded: loaded.filter((c) => c.machine_id === m.id).map((c) => ({ id: c.id, code: c.code, pocket: c.pocket })),
   }))
 }
 

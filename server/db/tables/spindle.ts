@@ -26,6 +26,9 @@ export interface MachinesTable {
   bed_y_mm: number | null
   active: Generated<boolean>
   retired_at: Date | null
+  /** For the program reader's time estimates. */
+  acceleration_mm_s2: Generated<number>
+  rapid_mm_per_min: Generated<number>
   created_at: Stamp
 }
 
@@ -64,6 +67,8 @@ export interface CuttersTable {
   code: string
   status: Generated<CutterStatus>
   machine_id: number | null
+  /** The tool-changer pocket while loaded in a machine with pockets. */
+  pocket: number | null
   diameter_mm: number
   regrind_count: Generated<number>
   life_scale: Generated<number>

@@ -53,9 +53,17 @@ export interface NcReadOptions {
 
 /** The program cannot be read as a whole; nothing of it should be kept. */
 export class NcRefusal extends Error {
-  constructor(message: string, readonly line?: number, readonly ask?: 'spindleTool') {
+  readonly line?: number
+  /** 'spindleTool': the program cuts before its first tool change; ask which tool is loaded. */
+  readonly ask?: 'spindleTool'
+  /** What kind of refusal: the file is not a program at all, or the program cannot be read. */
+  readonly kind: 'empty' | 'binary' | 'program'
+  constructor(message: string, opts: { line?: number, ask?: 'spindleTool', kind?: 'empty' | 'binary' } = {}) {
     super(message)
     this.name = 'NcRefusal'
+    this.line = opts.line
+    this.ask = opts.ask
+    this.kind = opts.kind ?? 'program'
   }
 }
 
@@ -134,13 +142,13 @@ export function readNcProgram(text: string, options: NcReadOptions = {}): NcRead
 
   const feedNow = (line: number, what: string): number => {
     if (feedRaw === undefined || !(feedRaw > 0)) {
-      throw new NcRefusal(`Line ${line}: ${what} comes before any feed rate (F), so its minutes cannot be known. Add an F word before the first cutting move.`, line)
+      throw new NcRefusal(`Line ${line}: ${what} comes before any feed rate (F), so its minutes cannot be known. Add an F word before the first cutting move.`, { line })
     }
     return feedRaw * unit
   }
   const cuttingTool = (line: number): Acc => {
     if (tool === undefined) {
-      throw new NcRefusal(`Line ${line} cuts before any tool change (T... M6): say which tool number is already in the spindle, and the program is read again with its moves counted for that tool.`, line, 'spindleTool')
+      throw new NcRefusal(`Line ${line} cuts before any tool change (T... M6): say which tool number is already in the spindle, and the program is read again with its moves counted for that tool.`, { line, ask: 'spindleTool' })
     }
     return accOf(tool)
   }
@@ -212,7 +220,7 @@ export function readNcProgram(text: string, options: NcReadOptions = {}): NcRead
     }
     if (bad) { problem(n, `${bad}, so this line is not counted.`); continue }
 
-    let lineMotion: Motion | 'none' | undefined
+    let lineMotion: Exclude<Motion, null> | 'none' | undefined
     let newPlane: Plane | undefined
     let machineCoords = false
     let dwellSeconds: number | undefined
@@ -257,12 +265,16 @@ export function readNcProgram(text: string, options: NcReadOptions = {}): NcRead
     if (newPlane) plane = newPlane
     if (dwellSeconds !== undefined) dwell(dwellSeconds)
 
-    if (lineMotion === 'none') { motion = null; cycle = {} } else if (lineMotion !== undefined) {
+    if (lineMotion === 'none') {
+      motion = null
+      cycle = {}
+    } else if (typeof lineMotion === 'number') {
+      // Entering a drilling cycle from other motion forgets the last cycle's sticky R, Z, Q and P.
       if ((lineMotion >= 81) !== ((motion ?? 0) >= 81)) cycle = {}
       motion = lineMotion
     }
     const hasAxis = w.X !== undefined || w.Y !== undefined || w.Z !== undefined
-    const cycleCalled = typeof lineMotion === 'number' && lineMotion >= 81
+    const cycleCalled = lineMotion != null && lineMotion !== 'none' && lineMotion >= 81
     if (hasAxis || cycleCalled) {
       if (motion === null) problem(n, 'axis words with no motion code in effect (G0, G1, G2, G3 or a cycle) are not counted.')
       else if (machineCoords && motion !== 0 && motion !== 1) problem(n, 'G53 with an arc or a cycle is not read, so this line is not counted.')
@@ -289,20 +301,20 @@ export function readNcProgram(text: string, options: NcReadOptions = {}): NcRead
     const [ci, cj] = plane === 17 ? ['I', 'J'] : plane === 18 ? ['K', 'I'] : ['J', 'K']
     let ca: number, cb: number
     if (w.R !== undefined) {
-      if (w[ci] !== undefined || w[cj] !== undefined) throw new NcRefusal(`Line ${line}: an arc gives both a radius (R) and a centre (I, J, K); give one.`, line)
+      if (w[ci] !== undefined || w[cj] !== undefined) throw new NcRefusal(`Line ${line}: an arc gives both a radius (R) and a centre (I, J, K); give one.`, { line })
       const r = Math.abs(w.R * unit)
       const chord = Math.hypot(a1 - a0, b1 - b0)
-      if (chord < 1e-9) throw new NcRefusal(`Line ${line}: an arc given by its radius (R) ends where it starts; a full circle needs its centre (I, J, K).`, line)
+      if (chord < 1e-9) throw new NcRefusal(`Line ${line}: an arc given by its radius (R) ends where it starts; a full circle needs its centre (I, J, K).`, { line })
       const half = chord / 2
       if (r < half - Math.max(0.0005, 1e-5 * half)) {
-        throw new NcRefusal(`Line ${line}: the arc's radius R${w.R} is too small for its end points, which lie ${fmt(chord / unit)} apart (the radius must be at least half that).`, line)
+        throw new NcRefusal(`Line ${line}: the arc's radius R${w.R} is too small for its end points, which lie ${fmt(chord / unit)} apart (the radius must be at least half that).`, { line })
       }
       const h = Math.sqrt(Math.max(0, r * r - half * half))
       const side = (ccw ? 1 : -1) * (w.R > 0 ? 1 : -1)
       ca = (a0 + a1) / 2 - side * h * (b1 - b0) / chord
       cb = (b0 + b1) / 2 + side * h * (a1 - a0) / chord
     } else {
-      if (w[ci] === undefined && w[cj] === undefined) throw new NcRefusal(`Line ${line}: an arc gives neither a centre (${ci}, ${cj}) nor a radius (R) for its plane.`, line)
+      if (w[ci] === undefined && w[cj] === undefined) throw new NcRefusal(`Line ${line}: an arc gives neither a centre (${ci}, ${cj}) nor a radius (R) for its plane.`, { line })
       const oi = (w[ci] ?? 0) * unit
       const oj = (w[cj] ?? 0) * unit
       ca = arcAbsolute ? oi : a0 + oi
@@ -311,7 +323,7 @@ export function readNcProgram(text: string, options: NcReadOptions = {}): NcRead
       const r1 = Math.hypot(a1 - ca, b1 - cb)
       const diff = Math.abs(r1 - r0)
       if (r0 < 1e-9 || (diff > 0.002 && diff > 0.001 * r0) || diff > 0.5) {
-        throw new NcRefusal(`Line ${line}: the arc's radius does not fit its end points: ${fmt(r0 / unit)} from the centre at the start, ${fmt(r1 / unit)} at the end.`, line)
+        throw new NcRefusal(`Line ${line}: the arc's radius does not fit its end points: ${fmt(r0 / unit)} from the centre at the start, ${fmt(r1 / unit)} at the end.`, { line })
       }
     }
     const radius = Math.hypot(a0 - ca, b0 - cb)

@@ -7,12 +7,12 @@ const CONTROL_OK = new Set([0x09, 0x0A, 0x0C, 0x0D])
 
 export function programText(bytes: Uint8Array): string {
   if (bytes.length === 0 || bytes.every((b) => b === 0x20 || CONTROL_OK.has(b))) {
-    throw new NcRefusal('The file is empty: choose the NC program (.nc, .ngc, .tap) the CAM software wrote.')
+    throw new NcRefusal('The file is empty: choose the NC program (.nc, .ngc, .tap) the CAM software wrote.', { kind: 'empty' })
   }
   for (let i = 0; i < bytes.length; i++) {
     const b = bytes[i]!
     if ((b < 0x20 && !CONTROL_OK.has(b)) || b === 0x7F) {
-      throw new NcRefusal(`This is not an NC program: it holds binary data (byte ${i + 1} is 0x${b.toString(16).padStart(2, '0')}). Choose the G-code text file the CAM software wrote.`)
+      throw new NcRefusal(`This is not an NC program: it holds binary data (byte ${i + 1} is 0x${b.toString(16).padStart(2, '0')}). Choose the G-code text file the CAM software wrote.`, { kind: 'binary' })
     }
   }
   try {

@@ -3,12 +3,14 @@
 // one bit: loading a second answers 409 naming the bit there, unless the request names that bit
 // in `returnCutterId`, which goes back to the crib in the same transaction. The machine's row is
 // locked first, so two loads into one such machine at once queue and end with one bit in it.
+// A machine with a tool changer holds one cutter a pocket: the load names the pocket (the phone's
+// pocket picker), or takes the lowest free one; a taken pocket answers 409 naming its cutter.
 import { CutterIdParams, LoadBody } from '#shared/schemas/spindle'
 
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
-  const { machineId, returnCutterId } = await readValidatedBody(event, parseWith(LoadBody))
+  const { machineId, returnCutterId, pocket } = await readValidatedBody(event, parseWith(LoadBody))
 
   await transaction(async (tx) => {
     const machine = await tx.selectFrom('machines').select(['id', 'name', 'pockets', 'active'])
@@ -34,7 +36,7 @@ export default defineEventHandler(async (event) => {
     if (cutter.status !== 'in_crib') {
       throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]} and cannot be loaded.` })
     }
-    const held = await tx.selectFrom('cutters').select(['id', 'code'])
+    const held = await tx.selectFrom('cutters').select(['id', 'code', 'pocket'])
       .where('shop_id', '=', user.shopId).where('machine_id', '=', machineId).where('status', '=', 'in_spindle')
       .orderBy('code').forUpdate().execute()
     const toReturn = held.filter((h) => h.id === returnCutterId)
@@ -43,20 +45,39 @@ export default defineEventHandler(async (event) => {
       throw createError({
         statusCode: 409,
         statusMessage: `${machine.name} holds one bit at a time and ${cutterList(codes)} ${codes.length === 1 ? 'is' : 'are'} in it. Return ${codes.length === 1 ? 'it' : 'them'} first, or return that one and load this.`,
-        data: { machineId, machineName: machine.name, held },
+        data: { machineId, machineName: machine.name, held: held.map((h) => ({ id: h.id, code: h.code })) },
       })
     }
+    const into = machine.pockets > 0 ? choosePocket(machine, held, pocket) : null
     for (const p of toReturn) {
-      await tx.updateTable('cutters').set({ status: 'in_crib', machine_id: null, updated_at: new Date() })
+      await tx.updateTable('cutters').set({ status: 'in_crib', machine_id: null, pocket: null, updated_at: new Date() })
         .where('shop_id', '=', user.shopId).where('id', '=', p.id).execute()
       await recordEvent(tx, {
         shopId: user.shopId, cutterId: p.id, kind: 'returned', from: 'in_spindle', to: 'in_crib', machineId,
         actorId: user.id, note: `Taken out when ${cutter.code} was loaded`,
       })
     }
-    await tx.updateTable('cutters').set({ status: 'in_spindle', machine_id: machineId, updated_at: new Date() })
+    await tx.updateTable('cutters').set({ status: 'in_spindle', machine_id: machineId, pocket: into, updated_at: new Date() })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id })
+    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id, note: into ? `Pocket ${into}` : undefined })
   })
   return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
 })
+
+/** The pocket a load goes into: the one asked for when it is free, else the lowest free one. */
+function choosePocket(machine: { name: string, pockets: number }, held: Array<{ code: string, pocket: number | null }>, asked: number | undefined): number {
+  const taken = new Map(held.filter((h) => h.pocket != null).map((h) => [h.pocket!, h.code]))
+  if (asked !== undefined) {
+    if (asked > machine.pockets) {
+      const message = `${machine.name} has pockets 1 to ${machine.pockets}`
+      throw createError({ statusCode: 400, statusMessage: `pocket: ${message}`, data: { fields: { pocket: message } } })
+    }
+    const there = taken.get(asked)
+    if (there) {
+      throw createError({ statusCode: 409, statusMessage: `Pocket ${asked} of ${machine.name} holds ${there}. Return it first, or choose a free pocket.`, data: { pocket: asked, held: there } })
+    }
+    return asked
+  }
+  for (let p = 1; p <= machine.pockets; p++) if (!taken.has(p)) return p
+  throw createError({ statusCode: 409, statusMessage: `All ${machine.pockets} pockets of ${machine.name} hold cutters. Return one first.` })
+}
