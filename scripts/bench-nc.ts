@@ -31,26 +31,35 @@ writeFileSync(path.join(dir, 'tools.tbl'), [1, 2, 3, 4, 5].map((t) => `T${t} P${
 const bytes = readFileSync(file).length
 
 const median = (xs: number[]) => xs.sort((a, b) => a - b)[Math.floor(xs.length / 2)]!
+// Wall time, and CPU time, which the other work on a shared machine disturbs far less.
 const ours: number[] = []
+const oursCpu: number[] = []
 let reading: ReturnType<typeof readNcProgram> | undefined
 for (let k = 0; k < 7; k++) {
   const started = performance.now()
+  const cpu = process.cpuUsage()
   reading = readNcProgram(readFileSync(file, 'utf8'))
+  const used = process.cpuUsage(cpu)
   ours.push(performance.now() - started)
+  oursCpu.push((used.user + used.system) / 1000)
 }
 console.log(`program: ${moves.toLocaleString('en-US')} moves, ${(bytes / 1e6).toFixed(2)} MB, ${reading!.tools.length} tools, ${reading!.problems.length} problems`)
-console.log(`Kerfbook's reader (read the file + read the program), median of 7: ${median(ours).toFixed(0)} ms (fastest ${Math.min(...ours).toFixed(0)} ms)`)
+console.log(`Kerfbook's reader (read the file + read the program), median of 7: ${median(ours).toFixed(0)} ms wall (fastest ${Math.min(...ours).toFixed(0)} ms), ${median(oursCpu).toFixed(0)} ms CPU`)
 
 let hasRs274 = true
 try { execFileSync('sh', ['-c', 'command -v rs274'], { stdio: 'ignore' }) } catch { hasRs274 = false }
 if (hasRs274) {
   const theirs: number[] = []
+  const theirsCpu: number[] = []
   for (let k = 0; k < 5; k++) {
     const started = performance.now()
-    execFileSync('rs274', ['-t', path.join(dir, 'tools.tbl'), '-g', file, path.join(dir, 'canon.txt')], { stdio: 'ignore' })
+    // bash's `times` prints the CPU its children used: user and system, on its second line.
+    const out = execFileSync('bash', ['-c', 'rs274 -t "$1" -g "$2" "$3" </dev/null >/dev/null 2>&1; times', 'bench', path.join(dir, 'tools.tbl'), file, path.join(dir, 'canon.txt')], { encoding: 'utf8' })
     theirs.push(performance.now() - started)
+    const seconds = (out.trim().split('\n')[1] ?? '').split(/\s+/).map((t) => { const m = /(\d+)m([\d.]+)s/.exec(t); return m ? Number(m[1]) * 60 + Number(m[2]) : 0 })
+    theirsCpu.push(seconds.reduce((a, b) => a + b, 0) * 1000)
   }
-  console.log(`rs274 (LinuxCNC's standalone interpreter, writing its canonical moves to a file), median of 5: ${median(theirs).toFixed(0)} ms`)
+  console.log(`rs274 (LinuxCNC's standalone interpreter, writing its canonical moves to a file), median of 5: ${median(theirs).toFixed(0)} ms wall, ${median(theirsCpu).toFixed(0)} ms CPU`)
 } else {
   console.log('rs274 is not installed (Debian package linuxcnc-uspace): no comparison')
 }

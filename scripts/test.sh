@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
-# `npm test`: installs what is needed (Chromium for the browser journeys, LinuxCNC's rs274 as the
-# NC program reader's oracle), starts a PostgreSQL of its own (port 55433, separate data folder),
-# type-checks, lints, builds, and runs every test.
+# `npm test`: installs what is needed (Chromium for the browser journeys in tests/e2e, LinuxCNC's
+# rs274 as the NC program reader's oracle), starts a PostgreSQL of its own (port 55433, separate
+# data folder), type-checks, lints, builds, and runs every test.
 # Ends with the test runner's summary.
 set -euo pipefail
 cd "$(dirname "$0")/.."

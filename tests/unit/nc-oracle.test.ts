@@ -8,12 +8,12 @@
 // comment styles, line numbers, block delete, % lines and program end. `npm test` installs
 // linuxcnc-uspace where rs274 is missing.
 import { readFileSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
+import path from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { readNcProgram } from '../../shared/kerf/nc/read'
 import { oracleTotals, runRs274 } from '../support/rs274'
 
-const dir = fileURLToPath(new URL('../fixtures/nc/', import.meta.url))
+const dir = path.resolve(import.meta.dirname, '../fixtures/nc') + path.sep
 const TOOLS = `${dir}tools.tbl`
 const PROGRAMS = ['metric-xy.ngc', 'inch-planes.ngc', 'cycles.ngc']
 const SETTINGS = [

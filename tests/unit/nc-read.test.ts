@@ -89,7 +89,7 @@ describe('bad input answers with a sentence', () => {
     expect(byCentre.message).toBe('Line 4: the arc\'s radius does not fit its end points: 5 from the centre at the start, 15 at the end.')
     expect(refusal(() => readNcProgram('G21\nT1 M6\nG1 X0 Y0 F900\nG2 X0 Y0 R5')).message).toMatch(/a full circle needs its centre/)
   })
-  it('a million lines of comments: no moves, refused without a pathological wait', () => {
+  it('a million lines of comments: no moves, refused without a pathological wait', { timeout: 60_000 }, () => {
     const text = Array.from({ length: 1_000_000 }, (_, i) => (i % 2 ? `(comment ${i})` : `; note ${i}`)).join('\n')
     const started = performance.now()
     const e = refusal(() => readNcProgram(text))
