@@ -8,11 +8,13 @@ import type {
   SuppliersTable, ToolingReportsTable,
 } from './tables/crib'
 import type { CutCleanupDailyTable, CutLogDailyTable, CutSharpLivesTable, WearFactorAdoptionsTable } from './tables/insights'
+import type { MachineToolPocketsTable, NcProgramsTable, NcRunLogsTable, NcRunsTable } from './tables/programs'
 
 export type * from './tables/shop'
 export type * from './tables/spindle'
 export type * from './tables/crib'
 export type * from './tables/insights'
+export type * from './tables/programs'
 
 export interface Database {
   shops: ShopsTable
@@ -37,4 +39,8 @@ export interface Database {
   cut_sharp_lives: CutSharpLivesTable
   cut_cleanup_daily: CutCleanupDailyTable
   wear_factor_adoptions: WearFactorAdoptionsTable
+  machine_tool_pockets: MachineToolPocketsTable
+  nc_programs: NcProgramsTable
+  nc_runs: NcRunsTable
+  nc_run_logs: NcRunLogsTable
 }

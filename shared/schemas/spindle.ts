@@ -13,6 +13,10 @@ export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().
 
 export const LoadBody = z.object({
   machineId: z.number({ error: 'choose a machine' }).int().positive().max(MAX_ID),
+  /** The bit seen in a one-bit machine, to go back to the crib in the same step ("return that one and load this"). */
+  returnCutterId: z.number({ error: 'must be a cutter id' }).int().positive().max(MAX_ID).optional(),
+  /** The tool-changer pocket, for a machine with pockets (the lowest free one when not given). */
+  pocket: z.number({ error: 'must be a pocket number' }).int({ error: 'must be a whole number' }).min(1, { error: 'must be 1 to 99' }).max(99, { error: 'must be 1 to 99' }).optional(),
 })
 
 export const CutLogBody = z.object({

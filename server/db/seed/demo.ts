@@ -67,7 +67,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
   const crib = userId(CRIB_EMAIL)
 
   const machines = await tx.insertInto('machines').values(MACHINES.map((m) => ({
-    shop_id: shopId, name: m.name, description: m.description, min_rpm: m.minRpm, max_rpm: m.maxRpm, tool_changer: m.toolChanger, created_at: setUp,
+    shop_id: shopId, name: m.name, description: m.description, min_rpm: m.minRpm, max_rpm: m.maxRpm, pockets: m.pockets, created_at: setUp,
   }))).returning(['id', 'name']).execute()
   const machineId = (key: string) => idsBy(machines, 'name')(MACHINES.find((m) => m.key === key)!.name)
 
@@ -133,8 +133,18 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
     batchIds.set(b, row.id)
   }
 
+  // Cutters loaded in a machine with a tool changer sit in its pockets, 1 upwards.
+  const filled = new Map<string, number>()
+  const pocketOf = (c: { status: string, machine?: string | null }): number | null => {
+    const pockets = c.machine && c.status === 'in_spindle' ? MACHINES.find((m) => m.key === c.machine)!.pockets : 0
+    if (!pockets) return null
+    const next = (filled.get(c.machine!) ?? 0) + 1
+    filled.set(c.machine!, next)
+    return next <= pockets ? next : null
+  }
   const cutters = await tx.insertInto('cutters').values(h.cutters.map((c) => ({
     shop_id: shopId, type_id: typeId(c.type.key), code: c.code, status: c.status, machine_id: c.machine ? machineId(c.machine) : null,
+    pocket: pocketOf(c),
     diameter_mm: c.diameter, regrind_count: c.regrindCount, life_scale: c.lifeScale, life_used: c.lifeUsed,
     minutes_this_life: c.minutesThisLife, minutes_total: c.minutesTotal, flagged: c.flagged,
     flagged_at: c.flaggedAt ? new Date(c.flaggedAt) : null, retired_reason: c.retiredReason,

@@ -120,7 +120,7 @@ export function badFields(fields: Record<string, string>): void {
   throw createError({ statusCode: 400, statusMessage: entries.map(([f, m]) => `${f}: ${m}`).join('; '), data: { fields } })
 }
 
-const WHAT = { cutter_types: 'cutter type', suppliers: 'supplier' } as const
+const WHAT = { cutter_types: 'cutter type', suppliers: 'supplier', machines: 'machine', materials: 'material' } as const
 
 /** 409 when another row of the shop has the name, whatever its case. */
 export async function assertNameFree(db: Queryable, table: keyof typeof WHAT, shopId: number, name: string, exceptId?: number) {
