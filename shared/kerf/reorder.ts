@@ -1,4 +1,4 @@
-// Reordering (DESIGN.md computation 3): demand in cutters per day from measured life
+// Reordering (docs/domain.md, computation 3): demand in cutters per day from measured life
 // consumption, safety stock and reorder point over the lead time, and the economic order
 // quantity rounded up to the pack size. Pure: no framework or database imports.
 import jstat from 'jstat'

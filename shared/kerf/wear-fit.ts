@@ -1,4 +1,4 @@
-// Learned wear factors (DESIGN.md computation 4): every finished sharp life should have used
+// Learned wear factors (docs/domain.md, computation 4): every finished sharp life should have used
 // exactly one life, Σ_m minutes_m · w_m / (rated life · life scale) = 1, so the shop's history
 // gives one equation per life. We solve for non-negative per-material rates w by least squares,
 // pulled toward the starting factors (ridge toward the prior) so that a material few lives
