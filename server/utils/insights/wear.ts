@@ -3,8 +3,11 @@
 // so it stays quick at millions of logs.
 import { sql } from 'kysely'
 import { fitWear, type FinishedLife } from '#shared/kerf/wear-fit'
-import type { DateRange } from '#shared/kerf/date-range'
-import type { Queryable } from '../../db/connect'
+import { resolveRange, type DateRange } from '#shared/kerf/date-range'
+import type { AdoptWearBody } from '#shared/schemas/insights'
+import type { z } from 'zod'
+import type { Db, Queryable } from '../../db/connect'
+import { notFound, type SessionUser } from '../platform/auth'
 
 export async function learnedWear(db: Queryable, shopId: number, range: DateRange) {
   const [materials, rows] = await Promise.all([
@@ -44,3 +47,45 @@ export async function learnedWear(db: Queryable, shopId: number, range: DateRang
   })).filter((m) => m.active || m.lives > 0)
 }
 export type WearRow = Awaited<ReturnType<typeof learnedWear>>[number]
+
+// The materials table's own bounds (wear_factor > 0 and <= 100), at its three decimals.
+const FLOOR = 0.01
+const CEILING = 100
+
+/**
+ * Adopts learned wear factors: the chosen materials' factors become the fit's figures (over the
+ * same range the page showed), so life used counts with them from now on. Past cut logs keep
+ * the factor they were written with; each change is recorded with who and when.
+ */
+export async function adoptWearFactors(db: Db, user: SessionUser, body: z.output<typeof AdoptWearBody>) {
+  const range = resolveRange(body)
+  const adopted = await db.transaction().execute(async (tx) => {
+    // Lock the shop's materials so two adoptions cannot cross.
+    await tx.selectFrom('materials').select('id').where('shop_id', '=', user.shopId).forUpdate().execute()
+    const fit = new Map((await learnedWear(tx, user.shopId, range)).map((m) => [m.materialId, m]))
+    const missing = body.materialIds.filter((id) => !fit.has(id))
+    if (missing.length) notFound('material')
+    const changes = [...new Set(body.materialIds)].map((id) => fit.get(id)!)
+      .filter((m) => m.lives > 0)
+      .map((m) => ({ ...m, to: Math.min(CEILING, Math.max(FLOOR, Math.round(m.learnedFactor * 1000) / 1000)) }))
+      .filter((m) => m.to !== m.startingFactor)
+    for (const m of changes) {
+      await tx.updateTable('materials').set({ wear_factor: m.to })
+        .where('shop_id', '=', user.shopId).where('id', '=', m.materialId).execute()
+    }
+    if (changes.length) {
+      await tx.insertInto('wear_factor_adoptions').values(changes.map((m) => ({
+        shop_id: user.shopId, material_id: m.materialId, from_factor: m.startingFactor, to_factor: m.to, lives: m.lives,
+        from_date: range.from, to_date: range.to, adopted_by: user.id,
+      }))).execute()
+    }
+    return changes.map((m) => ({ materialId: m.materialId, name: m.name, from: m.startingFactor, to: m.to, lives: m.lives }))
+  })
+  const skipped = body.materialIds.length - adopted.length
+  return {
+    adopted,
+    message: adopted.length
+      ? `New wear factors for ${adopted.map((a) => a.name).join(', ')} count from now on.${skipped ? ` ${skipped} left as they were: no finished life backs them, or nothing changed.` : ''}`
+      : 'Nothing changed: no finished life backs those materials, or their factors already match.',
+  }
+}
