@@ -14,15 +14,21 @@ const appProject = {
   hookTimeout: 60_000,
 }
 
+// The Nuxt project settings (its aliases, plugins and the Nuxt environment's options), with plain
+// Node as every file's environment: defineVitestProject would make it Nuxt for all of them, and
+// starting Nuxt for each pure module's file cost minutes. Starting Nuxt for a component file
+// takes seconds on a busy machine, hence the longer hook timeout.
+const unitProject = await defineVitestProject({
+  test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], hookTimeout: 60_000 },
+})
+unitProject.test!.environment = 'node'
+
 export default defineConfig({
   resolve: { alias: { '#shared': fileURLToPath(new URL('./shared', import.meta.url)) } },
   test: {
     reporters: ['default', './tests/support/closing-line.ts'],
     projects: [
-      await defineVitestProject({
-        // Starting Nuxt for a component file takes seconds on a busy machine.
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', hookTimeout: 60_000 },
-      }),
+      unitProject,
       { extends: true, test: { name: 'server', include: ['tests/server/**/*.test.ts'], ...appProject } },
       { extends: true, test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], ...appProject } },
     ],

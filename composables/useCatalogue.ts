@@ -1,5 +1,10 @@
 // The catalogue and the suppliers as the crib pages fetch them, each under one key so a save on
 // one page refreshes the others.
+import type { InternalApi, Serialize } from 'nitropack/types'
+
+/** A cutter type as the client receives it (JSON: its dates as text). */
+export type CutterTypeJson = Serialize<InternalApi['/api/cutter-types/:id']['get']>
+
 export function useCutterTypes(includeArchived: Ref<boolean>) {
   return useFetch('/api/cutter-types', {
     key: 'cutter-types',

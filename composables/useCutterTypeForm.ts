@@ -1,12 +1,12 @@
 // The cutter type form's state as people type it (lengths in their unit, money in dollars, the
 // service level in percent) and the body the API takes (mm, cents, a fraction), checked with the
 // same schema the server uses before it is sent.
-import type { LengthUnit } from '#shared/kerf/units'
+import { mmToIn, type LengthUnit } from '#shared/kerf/units'
 import { formatMoney, parseMoney } from '#shared/kerf/money'
 import { lengthText, parseDecimal, parseLength, parseServiceLevel, roundTo } from '#shared/kerf/numbers'
 import { CutterTypeBody } from '#shared/schemas/crib'
 import type { Helix, Profile, ToolMaterial } from '#shared/kerf/geometry'
-import type { CutterTypeJson } from '~~/server/utils/crib/catalogue'
+import type { CutterTypeJson } from '~/composables/useCatalogue'
 
 export const LENGTH_FIELDS = ['cuttingDiameterMm', 'shankDiameterMm', 'cuttingLengthMm', 'overallLengthMm', 'minUsableDiameterMm', 'regrindDiameterLossMm'] as const
 export type LengthField = (typeof LENGTH_FIELDS)[number]
@@ -97,7 +97,7 @@ export function useCutterTypeForm(initial: CutterTypeJson | undefined) {
   function lengthHint(f: LengthField): string | undefined {
     const mm = lengthMm(f)
     if (typeof mm !== 'number') return undefined
-    return unit.value === 'in' ? `= ${mm} mm` : `= ${roundTo(mm / 25.4, 4)} in`
+    return unit.value === 'in' ? `= ${mm} mm` : `= ${roundTo(mmToIn(mm), 4)} in`
   }
 
   return { form, lengths, unit, body, check, lengthHint }

@@ -2,7 +2,7 @@
 // a key made of the pick, so the calculator page and the cutter page's card share answers. While
 // the pick is incomplete there is nothing to ask, and the answer is null.
 import type { InternalApi } from 'nitropack/types'
-import type { LengthUnit } from '#shared/kerf/units'
+import { mmPerMinToInPerMin, mmToIn, type LengthUnit } from '#shared/kerf/units'
 
 export type FeedsAnswer = InternalApi['/api/feeds']['get']
 export type FeedsLearned = NonNullable<FeedsAnswer['learned']>
@@ -37,7 +37,7 @@ export const rpmText = (rpm: number) => rpm.toLocaleString('en-US')
 /** A feed in the person's unit: "3200 mm/min" or "126.0 in/min"; the other unit for a second line. */
 export function feedText(mmPerMin: number | null | undefined, unit: LengthUnit): string {
   if (mmPerMin === null || mmPerMin === undefined) return '—'
-  return unit === 'in' ? `${(mmPerMin / 25.4).toFixed(1)} in/min` : `${Math.round(mmPerMin).toLocaleString('en-US')} mm/min`
+  return unit === 'in' ? `${mmPerMinToInPerMin(mmPerMin).toFixed(1)} in/min` : `${Math.round(mmPerMin).toLocaleString('en-US')} mm/min`
 }
 
 /** A feed split for a big figure with a small unit beside it. */
@@ -49,7 +49,7 @@ export function feedParts(mmPerMin: number | null | undefined, unit: LengthUnit)
 /** A chip load per tooth: "0.178 mm" or "0.0070 in" (the usual inch precision for chip loads). */
 export function chipText(mm: number | null | undefined, unit: LengthUnit): string {
   if (mm === null || mm === undefined) return '—'
-  return unit === 'in' ? `${(mm / 25.4).toFixed(4)} in` : `${mm.toFixed(3)} mm`
+  return unit === 'in' ? `${mmToIn(mm).toFixed(4)} in` : `${mm.toFixed(3)} mm`
 }
 
 /** Warnings about heat and melting are ember; the rest are amber. */

@@ -5,13 +5,20 @@ import type { LocationQuery } from 'vue-router'
 import { CUTTER_STATUSES, type CutterStatus } from '#shared/kerf/status'
 import { INVENTORY_PAGE_SIZE, INVENTORY_SORTS } from '#shared/schemas/inventory'
 
-export const LIFE_BANDS = [
-  { key: 'fresh', label: 'Under 50 %', query: { lifeMax: 0.5 } },
-  { key: 'midlife', label: '50 to 90 %', query: { lifeMin: 0.5, lifeMax: 0.9 } },
-  { key: 'worn', label: '90 % or more', query: { lifeMin: 0.9 } },
-  { key: 'due', label: 'Due for attention', query: { due: true } },
-] as const
-export type LifeBand = (typeof LIFE_BANDS)[number]['key']
+export const LIFE_BAND_KEYS = ['fresh', 'midlife', 'worn', 'due'] as const
+export type LifeBand = (typeof LIFE_BAND_KEYS)[number]
+
+/** The life-used choices of the inventory, split at half a life and at the shop's resharpen threshold. */
+export function lifeBands(threshold: number): Array<{ key: LifeBand, label: string, query: Record<string, number | boolean> }> {
+  const half = Math.min(0.5, threshold)
+  const pct = (f: number) => `${Number((f * 100).toFixed(1))} %`
+  return [
+    { key: 'fresh', label: `Under ${pct(half)}`, query: { lifeMax: half } },
+    { key: 'midlife', label: `${pct(half).replace(' %', '')} to ${pct(threshold)}`, query: { lifeMin: half, lifeMax: threshold } },
+    { key: 'worn', label: `${pct(threshold)} or more`, query: { lifeMin: threshold } },
+    { key: 'due', label: 'Due for attention', query: { due: true } },
+  ]
+}
 
 export interface InventoryState {
   status: CutterStatus[]
@@ -33,7 +40,7 @@ function fromQuery(q: LocationQuery): InventoryState {
     status: one(q.status).split(',').filter((s): s is CutterStatus => (CUTTER_STATUSES as readonly string[]).includes(s)),
     typeId: /^\d+$/.test(one(q.typeId)) ? one(q.typeId) : '',
     machineId: /^\d+$/.test(one(q.machineId)) ? one(q.machineId) : '',
-    life: LIFE_BANDS.some((b) => b.key === life) ? life as LifeBand : '',
+    life: (LIFE_BAND_KEYS as readonly string[]).includes(life) ? life as LifeBand : '',
     q: one(q.q).slice(0, 60),
     sort: (INVENTORY_SORTS as readonly string[]).includes(sort.replace(/^-/, '')) ? sort : DEFAULT_SORT,
     page: Math.max(1, Number.parseInt(one(q.page), 10) || 1),
@@ -56,7 +63,8 @@ function toQuery(s: InventoryState): Record<string, string> {
 const sameQuery = (a: Record<string, string>, b: LocationQuery) =>
   Object.keys(a).length === Object.keys(b).length && Object.entries(a).every(([k, v]) => one(b[k]) === v)
 
-export function useInventoryQuery() {
+/** `threshold`: the shop's resharpen threshold, which the life bands split at. */
+export function useInventoryQuery(threshold: Ref<number>) {
   const route = useRoute()
   const router = useRouter()
   const state = reactive(fromQuery(route.query))
@@ -116,7 +124,7 @@ export function useInventoryQuery() {
     ...(state.typeId && { typeId: state.typeId }),
     ...(state.machineId && { machineId: state.machineId }),
     ...(state.q.trim() && { q: state.q.trim() }),
-    ...LIFE_BANDS.find((b) => b.key === state.life)?.query,
+    ...lifeBands(threshold.value).find((b) => b.key === state.life)?.query,
     sort: state.sort,
     page: state.page,
     pageSize: INVENTORY_PAGE_SIZE,

@@ -8,10 +8,10 @@
 // Cut logs are only ever inserted; a shop's deletion cascades to both roll-ups.
 import { sql, type Kysely } from 'kysely'
 
-// Pieces later migrations that redefine the roll-up functions use again: the daily roll-up's
-// part of the trigger (it sets the record t) and of the rebuild, and the per-life-and-material
-// table that 2026_12_06_0001 replaces (its down makes it again).
-export const DAILY_ON_INSERT = `
+// The daily roll-up's part of the trigger (it sets the record t) and of the rebuild, and the
+// per-life-and-material table. 2026_12_06_0001 keeps its own copy of each (its down makes them
+// again), so that neither migration depends on the other's text.
+const DAILY_ON_INSERT = `
       select ct.id, ct.rated_life_minutes into t
         from cutters c join cutter_types ct on ct.id = c.type_id and ct.shop_id = c.shop_id
         where c.id = new.cutter_id and c.shop_id = new.shop_id;
@@ -26,7 +26,7 @@ export const DAILY_ON_INSERT = `
           clean = d.clean + excluded.clean, melted = d.melted + excluded.melted, chip_out = d.chip_out + excluded.chip_out,
           fuzzy = d.fuzzy + excluded.fuzzy, broken = d.broken + excluded.broken;
 `
-export const DAILY_REBUILD = `
+const DAILY_REBUILD = `
       delete from cut_log_daily where shop_id = p_shop;
       insert into cut_log_daily (shop_id, day, material_id, machine_id, operator_id, type_id, logs, minutes, new_lives,
           clean, melted, chip_out, fuzzy, broken)
@@ -41,7 +41,7 @@ export const DAILY_REBUILD = `
         where l.shop_id = p_shop
         group by 1, 2, 3, 4, 5, 6;
 `
-export const CUT_LOG_LIVES_TABLE = `
+const CUT_LOG_LIVES_TABLE = `
     create table cut_log_lives (
       shop_id integer not null references shops(id) on delete cascade,
       cutter_id integer not null,
@@ -118,9 +118,8 @@ export async function down(db: Kysely<any>): Promise<void> {
   `.execute(db)
 }
 
-// The roll-up functions as this migration made them; the sharp-lives migration's down puts them
-// back.
-export async function defineRollUpFunctions(db: Kysely<any>): Promise<void> {
+// The roll-up functions as this migration makes them.
+async function defineRollUpFunctions(db: Kysely<any>): Promise<void> {
   await sql`
     create or replace function cut_logs_roll_up() returns trigger language plpgsql as $$
     declare

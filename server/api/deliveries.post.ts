@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const created = await transaction(async (tx) => {
     const type = await tx.selectFrom('cutter_types').select(['id', 'cutting_diameter_mm'])
       .where('shop_id', '=', user.shopId).where('id', '=', body.typeId).where('active', '=', true).executeTakeFirst()
-    if (!type) throw createError({ statusCode: 400, statusMessage: 'typeId: no such cutter type in your shop', data: { fields: { typeId: 'no such cutter type in your shop' } } })
+    if (!type) badField('typeId', 'no such cutter type in your shop')
     return createCutters(tx, user.shopId, user.id, Array.from({ length: body.quantity }, () => ({
       typeId: type.id, diameterMm: body.diameterMm ?? type.cutting_diameter_mm, note: body.note ?? 'Delivery without an order',
     })))

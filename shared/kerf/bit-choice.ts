@@ -1,4 +1,4 @@
-// Which bit for this material and this cut (DESIGN.md computation 8). The trade's rules are data:
+// Which bit for this material and this cut (docs/domain.md, computation 8). The trade's rules are data:
 // each says when it applies, what it makes of the type (a prior share of clean cuts, or only a
 // note), why, and where that comes from. The shop's own outcomes then pull each type's share of
 // clean cuts away from the rule's prior as logs accumulate (a Beta prior worth PRIOR_LOGS logs;

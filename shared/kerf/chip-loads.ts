@@ -39,7 +39,7 @@ export function bandLabel(band: Pick<ChipLoadBand, 'diameterMinMm' | 'diameterMa
 }
 
 // Router chip loads in inches per tooth for a 1/8 in and a 1/4 in bit: common practice, the same
-// ranges appear across many makers' published charts (REFERENCES.md, "Router chip loads").
+// ranges appear across many makers' published charts (docs/domain.md, computation 5).
 const COMMON_PRACTICE_IN = {
   hardwood: { eighth: [0.002, 0.005], quarter: [0.005, 0.011] },
   mdf: { eighth: [0.004, 0.007], quarter: [0.012, 0.016] },

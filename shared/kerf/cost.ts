@@ -1,6 +1,7 @@
-// Tooling cost (DESIGN.md computation 6): what a sharp life of a cutter type costs, what each
+// Tooling cost (docs/domain.md, computation 6): what a sharp life of a cutter type costs, what each
 // cut used of it, and the cost per hour of cutting by material, machine, operator or type.
 // Pure: no framework or database imports. Money in cents (fractions kept until the end).
+import { lifeAdded } from './life'
 import { livesPerCutter } from './reorder'
 
 export interface TypeCosts {
@@ -26,7 +27,7 @@ export function costPerLifeCents(type: TypeCosts, regrindLifeFraction: number): 
  * costs its share). Over a cutter's whole career this adds up to purchase + regrinds.
  */
 export function cutCostCents(minutes: number, wearFactor: number, ratedLifeMinutes: number, costPerLife: number): number {
-  return (minutes * wearFactor / ratedLifeMinutes) * costPerLife
+  return lifeAdded(minutes, wearFactor, ratedLifeMinutes) * costPerLife
 }
 
 /** Cents per hour of cutting, or null when nothing was cut. */

@@ -18,6 +18,9 @@ export interface TypeForDue {
   minUsableDiameterMm: number
 }
 
+/** The resharpen threshold of a new shop (the shops table's default): due at 90 % of a sharp life. */
+export const DEFAULT_LIFE_THRESHOLD = 0.9
+
 /** Statuses in which a cutter can be due: it is in the shop and in use. */
 export const DUE_STATUSES = ['in_crib', 'in_spindle'] as const
 

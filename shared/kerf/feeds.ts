@@ -1,4 +1,4 @@
-// Feeds and speeds (DESIGN.md computation 5): spindle speed from a surface-speed target and the
+// Feeds and speeds (docs/domain.md, computation 5): spindle speed from a surface-speed target and the
 // cutting diameter, clamped to the machine's range; feed = rpm × flutes × chip load; plunge and
 // depth per pass as starting points; and the warnings for setups known to melt plastic.
 // Pure: no framework or database imports.
@@ -202,7 +202,7 @@ export function computeFeeds(input: FeedsInput): FeedsResult {
   }
 }
 
-/** Shown with every recommendation (DESIGN.md, Safety; HSE WIS 22 and OSHA 3157 in REFERENCES.md). */
+/** Shown with every recommendation (docs/domain.md, computation 5: UK HSE WIS 22, US OSHA 3157). */
 export const CAUTIONS: readonly string[] = [
   'Wear eye and hearing protection at the router.',
   'Run the dust extraction at the cutter: wood and MDF dust harm the lungs, and fine dust can burn.',

@@ -1,4 +1,4 @@
-// The words of a cutter type's geometry (DESIGN.md "cutter type"), with the labels people see. Pure.
+// The words of a cutter type's geometry (docs/domain.md, "Cutter type"), with the labels people see. Pure.
 export const PROFILES = ['square_end', 'ball_nose', 'v_bit', 'o_flute'] as const
 export type Profile = (typeof PROFILES)[number]
 export const PROFILE_LABELS: Record<Profile, string> = {

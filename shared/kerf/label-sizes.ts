@@ -1,5 +1,6 @@
 // The label stock the label sheet prints on, in millimetres, and how labels fill its pages. Pure.
 // Two thermal roll sizes (one label per printed page) and two office sheet layouts.
+import { MM_PER_INCH } from './units'
 
 export const LABEL_SIZE_KEYS = ['roll-50x25', 'roll-25x25', 'a4-24', 'letter-30'] as const
 export type LabelSizeKey = (typeof LABEL_SIZE_KEYS)[number]
@@ -23,8 +24,8 @@ export interface LabelSize {
   layout: 'side' | 'square'
 }
 
-// 25.4 mm per inch exactly (international yard and pound agreement, 1959): inch stock in mm.
-const IN = 25.4
+// Inch stock in mm.
+const IN = MM_PER_INCH
 
 export const LABEL_SIZES: Record<LabelSizeKey, LabelSize> = {
   // 2" x 1" direct-thermal roll label: the commonest desktop label printer size; wraps a bit's tube.

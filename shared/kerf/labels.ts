@@ -1,4 +1,5 @@
 // What a cutter's label says: the URL its QR code holds and the cutter type in short. Pure.
+import { MM_PER_INCH } from './units'
 
 export type Profile = 'square_end' | 'ball_nose' | 'v_bit' | 'o_flute'
 export type Helix = 'upcut' | 'downcut' | 'compression' | 'straight'
@@ -8,8 +9,6 @@ export function cutterPageUrl(baseUrl: string, code: string): string {
   return `${baseUrl.replace(/\/+$/, '')}/c/${encodeURIComponent(code)}`
 }
 
-// 25.4 mm per inch exactly (international yard and pound agreement, 1959).
-export const MM_PER_INCH = 25.4
 /** How close a diameter must be to a fraction of an inch to be called by it (plus a hair for
  *  binary floating point, in which 6.36 - 6.35 is a little over 0.01). */
 const FRACTION_TOLERANCE_MM = 0.01 + 1e-9

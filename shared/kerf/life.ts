@@ -27,3 +27,16 @@ export function remainingMinutes(used: number, ratedLifeMinutes: number, wearFac
 export function roundLife(value: number): number {
   return Math.round(value * 1e6) / 1e6
 }
+
+/** How a life bar shows a cutter: short of the shop's resharpen mark, at or past it, past a whole life. */
+export type LifeTone = 'ok' | 'due' | 'past'
+
+/** Whole percent of a sharp life used, rounded down, so the figure never reads as the mark before the tone does. */
+export function lifePercent(fraction: number): number {
+  return Math.floor(Math.max(0, fraction) * 100 + 1e-9)
+}
+
+/** The tone of a life bar: 'due' from the shop's threshold on, 'past' only beyond a whole life. */
+export function lifeTone(used: number, threshold: number): LifeTone {
+  return used > 1 ? 'past' : used >= threshold ? 'due' : 'ok'
+}

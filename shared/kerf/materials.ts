@@ -1,4 +1,4 @@
-// The material families of DESIGN.md and the starting list a new shop gets. Pure.
+// The material families (docs/domain.md, "Material") and the starting list a new shop gets. Pure.
 // Starting wear factors are the shop's own first guesses relative to MDF (1.0), to be replaced
 // by figures learned from the shop's history; they are not published values.
 export const MATERIAL_FAMILIES = ['hard_plastic', 'soft_plastic', 'wood', 'sheet_goods', 'non_ferrous', 'foam', 'composite'] as const

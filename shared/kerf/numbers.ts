@@ -1,6 +1,6 @@
 // Numbers as people type them into forms and CSV cells: decimals, lengths in either unit (inch
 // fractions too), percentages. Pure. Each returns undefined for text it cannot read.
-import { inToMm, type LengthUnit } from './units'
+import { inToMm, mmToIn, type LengthUnit } from './units'
 
 const DECIMAL = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)$/
 
@@ -38,7 +38,7 @@ export function parseLength(text: string, unit: LengthUnit): number | undefined 
 /** A length in mm shown for typing in the person's unit: 6.35 → "0.25" in inches, "6.35" in mm. */
 export function lengthText(mm: number | null | undefined, unit: LengthUnit): string {
   if (mm === null || mm === undefined) return ''
-  return String(unit === 'in' ? roundTo(mm / 25.4, 4) : roundTo(mm, 3))
+  return String(unit === 'in' ? roundTo(mmToIn(mm), 4) : roundTo(mm, 3))
 }
 
 /** "45", "45 %" or "45%" as the fraction 0.45. */

@@ -1,4 +1,4 @@
-// Resharpening (DESIGN.md computation 2, at the other end): what a cutter back from the
+// Resharpening (docs/domain.md, computation 2, at the other end): what a cutter back from the
 // regrinder becomes, reground or retired, and the plain words for why. Pure.
 import type { RetireCause } from './due'
 
@@ -35,6 +35,17 @@ export function receiptVerdict(measuredDiameterMm: number, regrindCountBefore: n
 }
 
 /** The cutter's retired_reason for each cause: too small, or worn out after all its regrinds. */
+/**
+ * A reground cutter's new sharp life: back in the crib at its measured diameter, one regrind more,
+ * nothing used yet of a life scaled by the shop's regrind life fraction, and the dull flag cleared.
+ */
+export function afterRegrind(regrindCountBefore: number, measuredDiameterMm: number, regrindLifeFraction: number) {
+  return {
+    status: 'in_crib' as const, diameterMm: measuredDiameterMm, regrindCount: regrindCountBefore + 1,
+    lifeUsed: 0, lifeScale: regrindLifeFraction, minutesThisLife: 0, flagged: null, flaggedAt: null,
+  }
+}
+
 export const RETIRED_REASON: Record<ReceiptCause, 'undersize' | 'worn'> = {
   undersize: 'undersize',
   regrinds_exceeded: 'worn',

@@ -1,4 +1,4 @@
-// Reordering (DESIGN.md computation 3): demand in cutters per day from measured life
+// Reordering (docs/domain.md, computation 3): demand in cutters per day from measured life
 // consumption; the reorder point over the lead time from Poisson demand for slow movers (the
 // usual case for router bits) and the normal approximation for faster ones; the shop's own
 // min/max or spares per machine when set; an order-up-to level over the lead time plus the

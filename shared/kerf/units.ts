@@ -1,6 +1,8 @@
 // Lengths are stored in millimetres and shown in millimetres or inches by preference.
 // 25.4 mm per inch exactly (international yard and pound agreement, 1959). Pure.
 export const MM_PER_INCH = 25.4
+// 0.3048 m per foot exactly (the same agreement): surface speeds in feet per minute for inch users.
+export const M_PER_FOOT = 0.3048
 export type LengthUnit = 'mm' | 'in'
 
 export const mmToIn = (mm: number) => mm / MM_PER_INCH
@@ -26,6 +28,11 @@ export function formatLength(mm: number, unit: LengthUnit): string {
 export function toMm(value: number, unit: LengthUnit): number {
   return unit === 'in' ? inToMm(value) : value
 }
+
+/** Surface speed: m/min to ft/min (SFM). */
+export const mPerMinToFtPerMin = (v: number) => v / M_PER_FOOT
+/** Surface speed: ft/min to m/min. */
+export const ftPerMinToMPerMin = (v: number) => v * M_PER_FOOT
 
 /** Feed rates: mm/min to in/min. */
 export const mmPerMinToInPerMin = (v: number) => v / MM_PER_INCH

@@ -1,4 +1,4 @@
-// Learned wear as a lifetime model with censoring (DESIGN.md computations 4 and 9; docs/domain.md
+// Learned wear as a lifetime model with censoring (docs/domain.md computation 4
 // "Learned wear"). Every sharp life of a cutter is evidence: one that ended by wear failed at the
 // damage it reached, D = Σ_m minutes_m · w_m / (rated life × life scale × ρ_type); one still
 // running, broken, lost or retired for another reason is right-censored there. Log D of a worn-out
@@ -83,7 +83,7 @@ export const DEFAULT_PRIOR_LIVES = 2
 export const DEFAULT_PRIOR_SCATTER = 0.4
 /** Fewer finished lives than this make a figure "too few lives". */
 export const FAIR_LIVES = 5
-/** The 90 % two-sided normal quantile (REFERENCES.md, computed: 1.6448536). */
+/** The 90 % two-sided normal quantile (the standard normal quantile at 0.95, computed: 1.6448536). */
 const Z90 = 1.6448536269514722
 /** Starting figures outside the 99 % interval of the fit disagree strongly with the data. */
 const Z99 = 2.5758293035489004

@@ -1,6 +1,7 @@
 // Inputs of the spindle routes, shared with the phone page's forms.
 import { z } from 'zod'
-import { CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES } from '../kerf/spindle'
+import { OUTCOME_LABELS } from '../kerf/history-words'
+import { CUT_LIMITS, CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES } from '../kerf/spindle'
 import { EARLIEST_YEAR } from './dates'
 
 export { CUT_OUTCOMES, FLAG_KINDS, PHOTO_MAX_BYTES }
@@ -8,6 +9,10 @@ export type { CutOutcome } from '../kerf/spindle'
 
 // Ids are PostgreSQL integers: a larger number must be refused here, not fail in the database.
 const MAX_ID = 2_147_483_647
+
+const { minutes: MINUTES, feedMmPerMin: FEED } = CUT_LIMITS
+const NOTE_ERROR = `use at most ${CUT_LIMITS.noteChars} characters`
+const outcomeWords = CUT_OUTCOMES.map((o) => OUTCOME_LABELS[o].toLowerCase())
 
 export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })
 
@@ -24,15 +29,15 @@ export const CutLogBody = z.object({
   materialId: z.number({ error: 'choose a material' }).int().positive().max(MAX_ID),
   minutes: z.number({ error: 'enter the minutes cut' })
     // Stored to 0.01 minute: anything shorter would round to 0 in the database.
-    .min(0.01, { error: 'must be at least 0.01 minutes' })
-    .max(1440, { error: 'must be at most 24 hours (1440 minutes)' }),
-  outcome: z.enum(CUT_OUTCOMES, { error: 'choose clean, melted, chip out, fuzzy or broken' }),
-  rpm: z.number().int({ error: 'must be a whole number' }).positive({ error: 'must be more than 0' }).max(100_000).nullish(),
-  feedMmPerMin: z.number().min(0.01, { error: 'must be at least 0.01 mm/min' }).max(1_000_000).nullish(),
+    .min(MINUTES.min, { error: `must be at least ${MINUTES.min} minutes` })
+    .max(MINUTES.max, { error: `must be at most 24 hours (${MINUTES.max} minutes)` }),
+  outcome: z.enum(CUT_OUTCOMES, { error: `choose ${outcomeWords.slice(0, -1).join(', ')} or ${outcomeWords.at(-1)}` }),
+  rpm: z.number().int({ error: 'must be a whole number' }).positive({ error: 'must be more than 0' }).max(CUT_LIMITS.rpm.max).nullish(),
+  feedMmPerMin: z.number().min(FEED.min, { error: `must be at least ${FEED.min} mm/min` }).max(FEED.max).nullish(),
   // Hand-finishing a part needed because of the edge (fuzz, melt, chip-out), in minutes.
   cleanupMinutesPerPart: z.number({ error: 'enter the cleanup minutes per part' })
-    .min(0, { error: 'must be 0 or more' }).max(600, { error: 'must be at most 600 minutes' }).nullish(),
-  note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
+    .min(0, { error: 'must be 0 or more' }).max(CUT_LIMITS.cleanupMinutesPerPart.max, { error: `must be at most ${CUT_LIMITS.cleanupMinutesPerPart.max} minutes` }).nullish(),
+  note: z.string().trim().max(CUT_LIMITS.noteChars, { error: NOTE_ERROR }).optional(),
   machineId: z.number().int().positive().max(MAX_ID).nullish(),
   // When the cut finished; a log sent late from the phone's queue keeps its real time.
   cutAt: z.iso.datetime({ offset: true, error: 'must be an ISO date and time' })
@@ -42,5 +47,5 @@ export type CutLogInput = z.input<typeof CutLogBody>
 
 export const FlagFields = z.object({
   kind: z.enum(FLAG_KINDS, { error: 'choose dull or broken' }),
-  note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
+  note: z.string().trim().max(CUT_LIMITS.noteChars, { error: NOTE_ERROR }).optional(),
 })

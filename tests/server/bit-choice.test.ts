@@ -88,7 +88,7 @@ describe('GET /api/bit-choice on the demo shop\'s types', () => {
     expect(of3.sharpInCrib).toBe(2)
     expect(of3.bestCutter!.id).toBe(cutterOf.of3!.fresh)
     expect(of3.bestCutter!.lifeUsed).toBe(0.1)
-    // Remaining minutes = (1 − life used) × rated life / wear factor (Palmgren–Miner, DESIGN.md computation 1).
+    // Remaining minutes = (1 − life used) × rated life / wear factor (Palmgren–Miner, docs/domain.md computation 1).
     const rated = CUTTER_TYPES.find((t) => t.key === 'of3')!.ratedLife
     expect(of3.bestCutter!.remainingMinutes).toBeCloseTo((0.9 * rated) / material['Cast acrylic']!.wear, 1)
   })

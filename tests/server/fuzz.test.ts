@@ -23,12 +23,14 @@ import {
 import { Client, type Answer } from '../support/http'
 import { addShopRecords, type ShopRecords } from '../support/records'
 import { apiRoutes, fillPath, type ApiRoute } from '../support/routes'
+import { testSeed } from '../support/seed'
 import { makeShop, type TestShop } from '../support/shops'
 import { addSpindleFixture } from '../support/spindle'
 
-// Runs per route; KERFBOOK_FUZZ_RUNS scales them, KERFBOOK_FUZZ_SEED replays a failing run.
+// Runs per route; KERFBOOK_FUZZ_RUNS scales them. The seed is fixed in CI and random (printed)
+// locally; KERFBOOK_FUZZ_SEED replays a failing run (tests/support/seed.ts).
 const RUNS = Number(process.env.KERFBOOK_FUZZ_RUNS ?? 60)
-const SEED = Number(process.env.KERFBOOK_FUZZ_SEED ?? Math.floor(Math.random() * 2 ** 31))
+const SEED = testSeed('fuzz')
 const CONCURRENCY = 4
 const problemsOf = (what: string) => `${what} (replay with KERFBOOK_FUZZ_SEED=${SEED})`
 

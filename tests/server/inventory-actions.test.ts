@@ -3,7 +3,7 @@
 import { randomUUID } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../support/db'
-import { Client } from '../support/http'
+import type { Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
 import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
 
@@ -151,13 +151,6 @@ describe('history', () => {
 })
 
 describe('who may act', () => {
-  it('operators get 403 for the history and every row action', async () => {
-    const c = fx.cutters[7]!
-    expect((await shop.operator.get(`/api/cutters/${c.id}/history`)).status).toBe(403)
-    for (const action of ACTIONS) expect((await act(shop.operator, c.id, action)).status).toBe(403)
-    expect(await events(c.id)).toEqual([])
-  })
-
   it('another shop gets 404 for the history and every row action, and nothing changes', async () => {
     const c = fx.cutters[7]!
     expect((await other.crib.get(`/api/cutters/${c.id}/history`)).status).toBe(404)
@@ -168,11 +161,5 @@ describe('who may act', () => {
     }
     expect(await events(c.id)).toEqual([])
     expect((await other.crib.get(`/api/cutters/${otherFx.cutters[0]!.id}/history`)).status).toBe(200)
-  })
-
-  it('no session gets 401', async () => {
-    const c = fx.cutters[7]!
-    expect((await new Client().get(`/api/cutters/${c.id}/history`)).status).toBe(401)
-    for (const action of ACTIONS) expect((await act(new Client(), c.id, action)).status).toBe(401)
   })
 })

@@ -77,10 +77,6 @@ describe('a cutter\'s label PNG', () => {
     expect(res.status).toBe(400)
     expect(res.body.message).toMatch(/^id: /)
   })
-
-  it('needs a session', async () => {
-    expect((await new Client().get(`/api/cutters/${ids.upcut[0]}/label.png`)).status).toBe(401)
-  })
 })
 
 describe('the label sheet\'s contents', () => {

@@ -1,4 +1,4 @@
-// When a cutter is due, and whether it is resharpened or retired (DESIGN.md computation 2).
+// When a cutter is due, and whether it is resharpened or retired (docs/domain.md, computation 2).
 import { describe, expect, it } from 'vitest'
 import { dueAction, dueReason } from '../../shared/kerf/due'
 

@@ -72,7 +72,7 @@ describe('inch and metric give the same physical result (25.4 mm per inch exactl
   })
 })
 
-describe('the starting chip-load table (common practice, REFERENCES.md "Router chip loads")', () => {
+describe('the starting chip-load table (common practice, docs/domain.md computation 5)', () => {
   it('converts the inch ranges to millimetres: hardwood at 1/8 in is 0.002–0.005 in, 0.0508–0.127 mm', () => {
     const b = starting('wood', 3.175)
     expect(b.chipLoadMinMm).toBe(0.0508)
@@ -205,7 +205,7 @@ describe('warnings, each fired and not fired at its boundary', () => {
   })
 })
 
-describe('the ordering facts of the trade (common practice, REFERENCES.md "Router chip loads")', () => {
+describe('the ordering facts of the trade (common practice, docs/domain.md computation 5)', () => {
   it('single-flute upcut geometry is preferred in plastics', () => {
     // Common practice: a single-flute upcut (O-flute) lifts chips out; downcut and compression pack them in.
     const single = plasticGeometryRank({ flutes: 1, helix: 'upcut' })

@@ -2,7 +2,7 @@
 // conditions whose whole life is T_i has used Σ t_i / T_i of its life and is worn out at 1.
 // Here T_i = rated life × life scale / wear factor of the material.
 import { describe, expect, it } from 'vitest'
-import { lifeAdded, lifeUsed, remainingMinutes, roundLife } from '../../shared/kerf/life'
+import { lifeAdded, lifePercent, lifeTone, lifeUsed, remainingMinutes, roundLife } from '../../shared/kerf/life'
 
 describe('life used (Palmgren–Miner linear damage accumulation)', () => {
   it('matches a worked example computed by hand', () => {
@@ -48,5 +48,27 @@ describe('life used (Palmgren–Miner linear damage accumulation)', () => {
   it('rounds the way the database stores it', () => {
     expect(roundLife(0.1234564)).toBe(0.123456)
     expect(roundLife(0.1234566)).toBe(0.123457)
+  })
+})
+
+// Both life bars (the phone's and the crib's) show these, so one bit reads the same everywhere.
+describe('the life bars\' figure and tone', () => {
+  it('rounds down to a whole percent, so the figure never reaches the mark before the tone does', () => {
+    // By hand: 0.896 of a life is 89.6 %, shown as 89 %, still short of a 0.9 mark.
+    expect(lifePercent(0.896)).toBe(89)
+    expect(lifeTone(0.896, 0.9)).toBe('ok')
+    expect(lifePercent(0.5699)).toBe(56)
+    // 0.57 × 100 is 56.99999… in binary floating point; it still shows 57.
+    expect(lifePercent(0.57)).toBe(57)
+    expect(lifePercent(-0.1)).toBe(0)
+  })
+
+  it('is due from the shop\'s threshold on and past only beyond a whole life', () => {
+    expect(lifeTone(0.9, 0.9)).toBe('due')
+    expect(lifeTone(0.75, 0.75)).toBe('due')
+    expect(lifeTone(0.8, 0.75)).toBe('due')
+    expect(lifeTone(1, 0.9)).toBe('due')
+    expect(lifeTone(1.0001, 0.9)).toBe('past')
+    expect(lifePercent(1.25)).toBe(125)
   })
 })

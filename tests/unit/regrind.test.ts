@@ -1,9 +1,9 @@
-// What a cutter back from the regrinder becomes (DESIGN.md computation 2 at receipt). The
-// figures are the common practice noted in REFERENCES.md (from memory): solid-carbide router
+// What a cutter back from the regrinder becomes (docs/domain.md, computation 2, at receipt). The
+// figures are common practice (docs/domain.md, computation 2; from memory): solid-carbide router
 // bits take 2-3 regrinds, each removing roughly 0.1-0.25 mm of diameter.
 import { describe, expect, it } from 'vitest'
 import { retireCause } from '../../shared/kerf/due'
-import { expectedDiameterMm, receiptSentence, receiptVerdict, retireSentence, roundMm } from '../../shared/kerf/regrind'
+import { afterRegrind, expectedDiameterMm, receiptSentence, receiptVerdict, retireSentence, roundMm } from '../../shared/kerf/regrind'
 
 const type = { maxRegrinds: 2, minUsableDiameterMm: 6.0 }
 
@@ -70,5 +70,15 @@ describe('why a due cutter is retired rather than resharpened', () => {
     expect(cause).toBe('too_small')
     expect(retireSentence(cause!, 2)).toMatch(/below the minimum usable diameter/)
     expect(retireCause({ ...due, diameterMm: 6.2 }, rules)).toBeNull() // 6.2 − 0.2 = 6.0, still usable
+  })
+})
+
+describe('a reground cutter\'s new sharp life', () => {
+  it('starts at nothing used, one regrind more, its life scaled by the shop\'s regrind fraction', () => {
+    // The rule as the route and the demo history both apply it: life used back to 0, and a
+    // reground bit's life taken as a fraction of a new one (0.8 here; common practice, 70-90 %).
+    expect(afterRegrind(1, 6.2, 0.8)).toEqual({
+      status: 'in_crib', diameterMm: 6.2, regrindCount: 2, lifeUsed: 0, lifeScale: 0.8, minutesThisLife: 0, flagged: null, flaggedAt: null,
+    })
   })
 })

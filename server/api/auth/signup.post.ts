@@ -8,11 +8,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const taken = await db.selectFrom('users').select('id').where('email', '=', body.email).executeTakeFirst()
   if (taken) {
-    throw createError({
-      statusCode: 409,
-      statusMessage: 'An account with this e-mail already exists. Sign in, or reset the password.',
-      data: { fields: { email: 'already has an account' } },
-    })
+    fieldError({ email: 'already has an account' }, { status: 409, message: 'An account with this e-mail already exists. Sign in, or reset the password.' })
   }
   const owner = await transaction(async (tx) => {
     const shop = await tx.insertInto('shops').values({ name: body.shopName }).returning('id').executeTakeFirstOrThrow()
@@ -24,9 +20,9 @@ export default defineEventHandler(async (event) => {
       shop_id: shop.id, email: body.email, name: body.name, role: 'owner', password_hash: passwordHash,
       last_login_at: new Date(),
     }).returning(['id', 'shop_id', 'name', 'role']).executeTakeFirstOrThrow()
-  }).catch((err: { code?: string }) => {
+  }).catch((err: unknown) => {
     // Two sign-ups with one e-mail at the same moment: the unique index decides.
-    if (err.code === '23505') throw createError({ statusCode: 409, statusMessage: 'An account with this e-mail already exists.' })
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'An account with this e-mail already exists.' })
     throw err
   })
   await startSession(event, { id: owner.id, shopId: owner.shop_id, name: owner.name, role: owner.role })

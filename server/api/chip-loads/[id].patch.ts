@@ -15,10 +15,8 @@ export default defineEventHandler(async (event) => {
   const max = b.chipLoadMaxMm ?? row.chip_load_max_mm
   if (min > max) {
     const field = b.chipLoadMaxMm === undefined ? 'chipLoadMinMm' : 'chipLoadMaxMm'
-    throw createError({
-      statusCode: 400,
-      statusMessage: `${field}: the smallest chip load must not be more than the largest (${min} mm > ${max} mm).`,
-      data: { fields: { [field]: 'the smallest chip load must not be more than the largest' } },
+    fieldError({ [field]: 'the smallest chip load must not be more than the largest' }, {
+      message: `${field}: the smallest chip load must not be more than the largest (${min} mm > ${max} mm).`,
     })
   }
   await db.updateTable('chip_loads').set({

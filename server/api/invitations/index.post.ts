@@ -9,12 +9,11 @@ export default defineEventHandler(async (event) => {
     const existing = await tx.selectFrom('users').select(['id', 'shop_id', 'password_hash'])
       .where('email', '=', body.email).forUpdate().executeTakeFirst()
     if (existing && (existing.shop_id !== owner.shopId || existing.password_hash)) {
-      throw createError({
-        statusCode: 409,
-        statusMessage: existing.shop_id === owner.shopId
+      fieldError({ email: 'already has an account' }, {
+        status: 409,
+        message: existing.shop_id === owner.shopId
           ? 'This person already has an account in your shop.'
           : 'This e-mail address already belongs to an account in another shop.',
-        data: { fields: { email: 'already has an account' } },
       })
     }
     const user = existing
@@ -26,9 +25,9 @@ export default defineEventHandler(async (event) => {
     const token = await issueToken(tx, { shopId: owner.shopId, userId: user.id, purpose: 'invite', createdBy: owner.id, ttlMinutes: 7 * 24 * 60 })
     const shop = await tx.selectFrom('shops').select('name').where('id', '=', owner.shopId).executeTakeFirstOrThrow()
     return { user, token, shopName: shop.name }
-  }).catch((err: { code?: string }) => {
+  }).catch((err: unknown) => {
     // The same new address invited twice at the same moment: the unique index on e-mail decides.
-    if (err.code === '23505') {
+    if (isUniqueViolation(err)) {
       throw createError({ statusCode: 409, statusMessage: 'This address was invited a moment ago. Refresh the list of people to see it.' })
     }
     throw err

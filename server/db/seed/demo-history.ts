@@ -2,6 +2,7 @@
 // its trips to the regrinder and how its year ended. Pure and deterministic (seeded PRNG), so
 // demo.ts only has to write what comes out. Times are ms since epoch; day 365 is yesterday.
 import { lifeAdded, roundLife } from '../../../shared/kerf/life'
+import { afterRegrind } from '../../../shared/kerf/regrind'
 import { LABEL_ALPHABET, LABEL_LENGTH } from '../../../shared/kerf/label-code'
 import type { CutOutcome, CutterEventKind, CutterStatus, MaterialFamily } from '../schema'
 import {
@@ -227,9 +228,10 @@ class CribYear {
     const after = round(c.diameter - c.type.regrindLoss, 3)
     this.history.items.push({ batch: b, cutter: index, before: c.diameter, after, result: 'reground', cost: c.type.regrindCost })
     this.event(index, 'reground', 'at_regrind', 'in_crib', this.at(BATCH_SENDS[b]! + TURNAROUND, 11), CRIB_EMAIL, null, `Reground to ${after.toFixed(2)} mm`)
+    const life = afterRegrind(c.regrindCount, after, DEMO_SHOP.regrindLifeFraction)
     Object.assign(c, {
-      diameter: after, regrindCount: c.regrindCount + 1, lifeScale: DEMO_SHOP.regrindLifeFraction,
-      lifeUsed: 0, minutesThisLife: 0, flagged: null, flaggedAt: null,
+      diameter: life.diameterMm, regrindCount: life.regrindCount, lifeScale: life.lifeScale,
+      lifeUsed: life.lifeUsed, minutesThisLife: life.minutesThisLife, flagged: life.flagged, flaggedAt: life.flaggedAt,
     })
   }
 

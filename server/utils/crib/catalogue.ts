@@ -52,8 +52,6 @@ function typeView(t: TypeRow, stock: Stock) {
   }
 }
 export type CutterTypeView = ReturnType<typeof typeView>
-/** A cutter type as the client receives it (dates as text). */
-export type CutterTypeJson = Omit<CutterTypeView, 'createdAt'> & { createdAt: string }
 
 async function stockByType(db: Queryable, shopId: number, typeId?: number): Promise<Map<number, Stock>> {
   let q = db.selectFrom('cutters').select(['type_id', 'status', (eb) => eb.fn.countAll<number>().as('n')])
@@ -113,13 +111,6 @@ export function cutterTypeColumns(v: Partial<CutterTypeValue>) {
   }
 }
 
-/** 400 naming each field, like parseWith, for rules checked after the schema. */
-export function badFields(fields: Record<string, string>): void {
-  const entries = Object.entries(fields)
-  if (!entries.length) return
-  throw createError({ statusCode: 400, statusMessage: entries.map(([f, m]) => `${f}: ${m}`).join('; '), data: { fields } })
-}
-
 const WHAT = { cutter_types: 'cutter type', suppliers: 'supplier', machines: 'machine', materials: 'material' } as const
 
 /** 409 when another row of the shop has the name, whatever its case. */
@@ -131,7 +122,7 @@ export async function assertNameFree(db: Queryable, table: keyof typeof WHAT, sh
 
 export function nameTaken(table: keyof typeof WHAT): never {
   const message = `another ${WHAT[table]} already has this name (archived ones count too). Choose another name.`
-  throw createError({ statusCode: 409, statusMessage: `name: ${message}`, data: { fields: { name: message } } })
+  fieldError({ name: message }, { status: 409 })
 }
 
 /** Runs a write; two people saving the same name (in any case) at once meet the unique index, which answers 409 too. */
@@ -139,19 +130,22 @@ export async function withUniqueName<T>(table: keyof typeof WHAT, write: () => P
   try {
     return await write()
   } catch (err) {
-    const { code, constraint } = err as { code?: string, constraint?: string }
-    if (code === '23505' && constraint === `${table}_shop_id_lower_name_key`) {
-      nameTaken(table)
-    }
+    if (isUniqueViolation(err, `${table}_shop_id_lower_name_key`)) nameTaken(table)
     throw err
   }
 }
 
-/** A supplier id from a form must be one of the shop's. */
+/** The shop's supplier a form names, or a 400 on `supplierId`. */
+export async function supplierForField(db: Queryable, shopId: number, supplierId: number) {
+  const supplier = await db.selectFrom('suppliers').select(['id', 'name', 'email'])
+    .where('shop_id', '=', shopId).where('id', '=', supplierId).executeTakeFirst()
+  if (!supplier) badField('supplierId', 'no such supplier in your shop')
+  return supplier
+}
+
+/** A supplier id from a form, when there is one, must be one of the shop's. */
 export async function assertSupplier(db: Queryable, shopId: number, supplierId: number | null | undefined) {
-  if (supplierId === null || supplierId === undefined) return
-  const found = await db.selectFrom('suppliers').select('id').where('shop_id', '=', shopId).where('id', '=', supplierId).executeTakeFirst()
-  if (!found) badFields({ supplierId: 'no such supplier in your shop' })
+  if (supplierId !== null && supplierId !== undefined) await supplierForField(db, shopId, supplierId)
 }
 
 export function supplierQuery(db: Queryable, shopId: number) {

@@ -1,8 +1,18 @@
-// The cutters due for resharpening or retirement (DESIGN.md computation 2): one query for the
+// The cutters due for resharpening or retirement (docs/domain.md, computation 2): one query for the
 // home page and the crib's resharpening page, with the verdict from shared/kerf/due.ts.
 import { dueAction, dueReason, retireCause, DUE_STATUSES, type DueReason } from '#shared/kerf/due'
 import { expectedDiameterMm, retireSentence } from '#shared/kerf/regrind'
+import { sql, type SqlBool } from 'kysely'
 import type { Queryable } from '../../db/connect'
+
+/**
+ * dueReason of shared/kerf/due.ts as SQL, on cutters aliased `c`: in use, and flagged dull or at
+ * the shop's threshold. `is not distinct from`, not `=`: an unflagged cutter's null would make a
+ * negation of this unknown and drop the row.
+ */
+export function cutterIsDue(lifeThreshold: number) {
+  return sql<SqlBool>`(c.status in (${sql.join([...DUE_STATUSES])}) and (c.flagged is not distinct from 'dull' or c.life_used >= ${lifeThreshold}))`
+}
 
 /** Batches a cutter can still be claimed by: drafts, and those out at the regrinder. */
 export const OPEN_BATCH_STATUSES = ['draft', 'sent'] as const
@@ -26,8 +36,7 @@ export async function dueCutters(db: Queryable, shopId: number) {
         .as('openBatchId'),
     ])
     .where('c.shop_id', '=', shopId)
-    .where('c.status', 'in', [...DUE_STATUSES])
-    .where((eb) => eb.or([eb('c.flagged', '=', 'dull'), eb('c.life_used', '>=', shop.life_threshold)]))
+    .where(cutterIsDue(shop.life_threshold))
     .orderBy('c.life_used', 'desc').orderBy('c.code')
     .execute()
 

@@ -1,10 +1,11 @@
 // The crib's inventory list: one shop's cutters filtered, sorted and paged in SQL, with the
 // due rule of shared/kerf/due.ts applied to each row of the page.
-import { sql, type Expression } from 'kysely'
-import { dueAction, dueReason, DUE_STATUSES } from '#shared/kerf/due'
+import { sql, type Expression, type SqlBool } from 'kysely'
+import { dueAction, dueReason } from '#shared/kerf/due'
 import { CUTTER_STATUSES } from '#shared/kerf/status'
 import type { InventoryFilter, InventorySortField } from '#shared/schemas/inventory'
 import type { Queryable } from '../../db/connect'
+import { cutterIsDue } from './due'
 
 /** Escapes LIKE's wildcards so a typed % or _ matches itself. */
 const likeText = (s: string) => s.replace(/[\\%_]/g, (ch) => `\\${ch}`)
@@ -27,14 +28,7 @@ function filtered(db: Queryable, shopId: number, f: InventoryFilter, threshold: 
     ]))
   }
   if (f.due !== undefined) {
-    q = q.where((eb) => {
-      const due = eb.and([
-        eb('c.status', 'in', [...DUE_STATUSES]),
-        // Not "= 'dull'": an unflagged cutter's null would make the negation unknown and drop it.
-        eb.or([eb('c.flagged', 'is not distinct from', 'dull'), eb('c.life_used', '>=', threshold)]),
-      ])
-      return f.due ? due : eb.not(due)
-    })
+    q = q.where(f.due ? cutterIsDue(threshold) : sql<SqlBool>`not ${cutterIsDue(threshold)}`)
   }
   return q
 }

@@ -5,6 +5,7 @@ import type { z } from 'zod'
 import type { Db } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
 import { sendMail } from '../platform/mail'
+import { fieldError } from '../platform/validation'
 import { lockOrder } from './order-lines'
 import { orderPdf } from './order-pdf'
 import { orderLetterhead, orderMail, orderNumber, orderView } from './orders'
@@ -60,7 +61,7 @@ export async function receiveOrder(db: Db, user: SessionUser, id: number, body: 
       if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(id)}` })
       const open = line.quantity - line.received_quantity
       if (input.quantity > open) {
-        throw createError({ statusCode: 400, statusMessage: `lines: only ${open} of ${line.name} are still to come on this order`, data: { fields: { [`line-${line.id}`]: `at most ${open}` } } })
+        fieldError({ [`line-${line.id}`]: `at most ${open}` }, { message: `lines: only ${open} of ${line.name} are still to come on this order` })
       }
       if (input.quantity === 0) continue
       cutters.push(...Array.from({ length: input.quantity }, () => ({

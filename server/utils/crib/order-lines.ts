@@ -6,14 +6,14 @@ export async function replaceOrderLines(tx: Tx, shopId: number, orderId: number,
   lines: ReadonlyArray<{ typeId: number, quantity: number, unitCostCents?: number }>): Promise<void> {
   const ids = [...new Set(lines.map((l) => l.typeId))]
   if (ids.length !== lines.length) {
-    throw createError({ statusCode: 400, statusMessage: 'lines: each cutter type may appear only once', data: { fields: { lines: 'each cutter type may appear only once' } } })
+    badField('lines', 'each cutter type may appear only once')
   }
   const types = await tx.selectFrom('cutter_types').select(['id', 'unit_cost_cents'])
     .where('shop_id', '=', shopId).where('id', 'in', ids).execute()
   const cost = new Map(types.map((t) => [t.id, t.unit_cost_cents]))
   const unknown = ids.filter((id) => !cost.has(id))
   if (unknown.length) {
-    throw createError({ statusCode: 400, statusMessage: `lines: no cutter type ${unknown.join(', ')} in your shop`, data: { fields: { lines: 'unknown cutter type' } } })
+    fieldError({ lines: 'unknown cutter type' }, { message: `lines: no cutter type ${unknown.join(', ')} in your shop` })
   }
   await tx.deleteFrom('purchase_order_lines').where('shop_id', '=', shopId).where('order_id', '=', orderId).execute()
   await tx.insertInto('purchase_order_lines').values(lines.map((l) => ({

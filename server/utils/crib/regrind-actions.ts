@@ -1,11 +1,12 @@
 // Sending a resharpening batch to the regrinder and receiving it back: the two writes that move a
 // batch along, each one transaction under the batch's and its cutters' row locks.
 import { DUE_STATUSES } from '#shared/kerf/due'
-import { RETIRED_REASON, receiptVerdict, roundMm } from '#shared/kerf/regrind'
+import { afterRegrind, RETIRED_REASON, receiptVerdict, roundMm } from '#shared/kerf/regrind'
 import type { ReceiveBatchBody } from '#shared/schemas/regrind'
 import type { z } from 'zod'
 import type { Db, Tx } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
+import { badField } from '../platform/validation'
 import { recordEvent, STATUS_SENTENCE } from '../spindle/spindle'
 import { lockRegrindBatch, requireBatchStatus } from './regrind-batches'
 import { mailBatchToSupplier } from './regrind-mail'
@@ -61,10 +62,7 @@ export async function sendRegrindBatch(db: Db, user: SessionUser, id: number, em
   return { batch, mail: emailSupplier ? await mailBatchToSupplier(user, batch) : null }
 }
 
-function badItem(index: number, field: string, message: string): never {
-  const key = `items.${index}.${field}`
-  throw createError({ statusCode: 400, statusMessage: `${key}: ${message}`, data: { fields: { [key]: message } } })
-}
+const badItem = (index: number, field: string, message: string): never => badField(`items.${index}.${field}`, message)
 
 /**
  * Receives cutters of a batch back from the regrinder, all at once or in parts: each listed
@@ -133,9 +131,10 @@ async function receiveItems(tx: Tx, user: SessionUser, batchId: number, items: z
     const diameter = roundMm(item.diameterMm!)
     const verdict = receiptVerdict(diameter, c.regrind_count, { maxRegrinds: c.max_regrinds, minUsableDiameterMm: c.min_usable_diameter_mm })
     if (verdict.result === 'reground') {
+      const life = afterRegrind(c.regrind_count, diameter, shop.regrind_life_fraction)
       await tx.updateTable('cutters').set({
-        status: 'in_crib', machine_id: null, diameter_mm: diameter, regrind_count: c.regrind_count + 1,
-        life_used: 0, life_scale: shop.regrind_life_fraction, minutes_this_life: 0, flagged: null, flagged_at: null, updated_at: now,
+        status: life.status, machine_id: null, diameter_mm: life.diameterMm, regrind_count: life.regrindCount, life_used: life.lifeUsed,
+        life_scale: life.lifeScale, minutes_this_life: life.minutesThisLife, flagged: life.flagged, flagged_at: life.flaggedAt, updated_at: now,
       }).where('shop_id', '=', shopId).where('id', '=', c.id).execute()
       await recordEvent(tx, {
         shopId, cutterId: c.id, kind: 'reground', from: 'at_regrind', to: 'in_crib', actorId: user.id,

@@ -2,7 +2,7 @@
 // draft under their row locks so that no cutter ever sits in two open batches.
 import { dueReason, retireCause, DUE_STATUSES } from '#shared/kerf/due'
 import { retireSentence, type BatchStatus } from '#shared/kerf/regrind'
-import type { Queryable, Tx } from '../../db/connect'
+import type { Tx } from '../../db/connect'
 
 /** The batch's row, locked until the transaction ends; 404 when it is not in the shop. */
 export async function lockRegrindBatch(tx: Tx, shopId: number, id: number) {
@@ -100,14 +100,4 @@ export async function addBatchItems(tx: Tx, shopId: number, batchId: number, cut
     .values(cutters.map((c) => ({ shop_id: shopId, batch_id: batchId, cutter_id: c.id, diameter_before_mm: c.diameter_mm })))
     .onConflict((oc) => oc.columns(['batch_id', 'cutter_id']).doNothing())
     .execute()
-}
-
-/** A supplier of the shop, or a 400 naming the field. */
-export async function supplierForField(db: Queryable, shopId: number, supplierId: number) {
-  const supplier = await db.selectFrom('suppliers').select(['id', 'name', 'email'])
-    .where('shop_id', '=', shopId).where('id', '=', supplierId).executeTakeFirst()
-  if (!supplier) {
-    throw createError({ statusCode: 400, statusMessage: 'supplierId: no such supplier in your shop', data: { fields: { supplierId: 'no such supplier in your shop' } } })
-  }
-  return supplier
 }

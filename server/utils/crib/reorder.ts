@@ -1,7 +1,7 @@
 // The reorder figures of every cutter type of a shop, from the last 90 days of cutting. The
 // crib's reorder page and the morning tooling report both call this; the arithmetic itself
 // is shared/kerf/reorder.ts.
-import { sql } from 'kysely'
+import { sql, type SqlBool } from 'kysely'
 import { reorderFigures } from '#shared/kerf/reorder'
 import { reorderFormulas, reorderSentence } from '#shared/kerf/reorder-words'
 import type { Queryable } from '../../db/connect'
@@ -12,6 +12,9 @@ const DAY_MS = 86_400_000
 
 export async function reorderRows(db: Queryable, shopId: number, now = new Date()) {
   const windowStart = new Date(now.getTime() - DEMAND_WINDOW_DAYS * 86_400_000)
+  // The window's UTC days, as days since 1970-01-01: the 90 days that end today.
+  const firstDay = Math.floor(windowStart.getTime() / 86_400_000) + 1
+  const lastDay = Math.floor(now.getTime() / 86_400_000)
   const [shop, types, usage, stock, orders, atRegrind, machines] = await Promise.all([
     db.selectFrom('shops').select(['regrind_life_fraction', 'order_cost_cents', 'holding_rate', 'review_interval_days'])
       .where('id', '=', shopId).executeTakeFirstOrThrow(),
@@ -22,18 +25,13 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
         't.min_on_hand', 't.max_on_hand', 't.spares_per_machine', 't.do_not_reorder'])
       .where('t.shop_id', '=', shopId).where('t.active', '=', true)
       .orderBy('t.name').execute(),
-    // Lives used per type and UTC day, in new-cutter lives (minutes × wear / rated life).
-    db.selectFrom('cut_logs as l')
-      .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'l.cutter_id').onRef('c.shop_id', '=', 'l.shop_id'))
-      .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
-      .select([
-        'c.type_id',
-        sql<number>`floor(extract(epoch from l.cut_at) / 86400)::int`.as('day'),
-        sql<number>`sum(l.minutes * l.wear_factor / t.rated_life_minutes)`.as('lives'),
-      ])
-      .where('l.shop_id', '=', shopId)
-      .where('l.cut_at', '>', windowStart).where('l.cut_at', '<=', now)
-      .groupBy(['c.type_id', 'day'])
+    // New-cutter lives used per type and UTC day, from the daily roll-up (its trigger adds each
+    // log's minutes × wear factor / rated life as the log is written), never the raw logs.
+    db.selectFrom('cut_log_daily')
+      .select(['type_id', sql<number>`day - date '1970-01-01'`.as('day'), sql<number>`sum(new_lives)`.as('lives')])
+      .where('shop_id', '=', shopId)
+      .where(sql<SqlBool>`day between date '1970-01-01' + ${firstDay}::int and date '1970-01-01' + ${lastDay}::int`)
+      .groupBy(['type_id', 'day'])
       .execute(),
     db.selectFrom('cutters').select(['type_id', (eb) => eb.fn.countAll<number>().as('n')])
       .where('shop_id', '=', shopId)
@@ -72,7 +70,6 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
       .execute(),
   ])
 
-  const firstDay = Math.floor(windowStart.getTime() / 86_400_000) + 1
   const stockBy = new Map(stock.map((s) => [s.type_id, Number(s.n)]))
   const ordersBy = new Map(orders.map((o) => [o.type_id, o]))
   return types.map((t) => {

@@ -27,14 +27,14 @@ export function assertBodySize(event: H3Event, maxBytes: number, what: string): 
 
 export async function storePhoto(db: Queryable, opts: { shopId: number, userId: number, data: Buffer, filename?: string, maxBytes: number }) {
   if (opts.data.length === 0) {
-    throw createError({ statusCode: 400, statusMessage: 'photo: the file is empty', data: { fields: { photo: 'the file is empty' } } })
+    badField('photo', 'the file is empty')
   }
   if (opts.data.length > opts.maxBytes) {
     throw createError({ statusCode: 413, statusMessage: `The photo is too large: at most ${Math.round(opts.maxBytes / 1024 / 1024)} MB.` })
   }
   const kind = sniffImage(opts.data)
   if (!kind) {
-    throw createError({ statusCode: 415, statusMessage: 'photo: not a JPEG, PNG, WebP or HEIC image', data: { fields: { photo: 'not a JPEG, PNG, WebP or HEIC image' } } })
+    fieldError({ photo: 'not a JPEG, PNG, WebP or HEIC image' }, { status: 415 })
   }
   const key = `photos/${opts.shopId}/${randomBytes(16).toString('hex')}.${kind.ext}`
   await useStorage('uploads').setItemRaw(key, opts.data)

@@ -70,7 +70,28 @@ export function validateInput<S extends z.ZodType>(schema: S, input: unknown): z
   }
 }
 
-/** A 400 for one field, shaped as `parseWith`'s: the message names the field, `data.fields` holds it for forms. */
+/**
+ * A refusal naming fields, shaped as `parseWith`'s 400: `data.fields` holds a message per field for
+ * forms; the status message is `field: message` for each, unless a fuller sentence is given.
+ * For rules checked after the schema (a record of another shop, a range, a duplicate).
+ */
+export function fieldError(fields: Record<string, string>, opts: { status?: number, message?: string } = {}): never {
+  const message = opts.message ?? Object.entries(fields).map(([f, m]) => `${f}: ${m}`).join('; ')
+  throw createError({ statusCode: opts.status ?? 400, statusMessage: message, data: { fields } })
+}
+
+/** A 400 for one field. */
 export function badField(field: string, message: string): never {
-  throw createError({ statusCode: 400, statusMessage: `${field}: ${message}`, data: { fields: { [field]: message } } })
+  fieldError({ [field]: message })
+}
+
+/** A 400 naming each field, when there is any. */
+export function badFields(fields: Record<string, string>): void {
+  if (Object.keys(fields).length) fieldError(fields)
+}
+
+/** PostgreSQL's unique violation (23505), of the named constraint when one is given. */
+export function isUniqueViolation(err: unknown, constraint?: string): boolean {
+  const { code, constraint: hit } = (err ?? {}) as { code?: string, constraint?: string }
+  return code === '23505' && (constraint === undefined || hit === constraint)
 }

@@ -15,7 +15,7 @@ import { PREPARED, type Db } from '../../db/connect'
 import type { CutterStatus } from '../../db/schema'
 import type { CutLogsTable } from '../../db/tables/spindle'
 import { notFound, type SessionUser } from '../platform/auth'
-import { badField } from '../platform/validation'
+import { badField, isUniqueViolation } from '../platform/validation'
 import { requireCutterView } from './cutter-view'
 import { eventRow } from './spindle'
 
@@ -126,8 +126,8 @@ async function writeCut(db: Db, user: SessionUser, id: number, body: CutLogInput
     // Read again when the cutter changed since it was read, or when the same key was stored
     // meanwhile (a retry racing its first try, or two app instances: the unique index lets one
     // in). The next read finds that log and answers it, or 409 when it belongs to another cutter.
-    const result = await tryLogCut(db, user, id, body, cutAt).catch((err: { code?: string }) => {
-      if (err.code === '23505') return 'stale' as const
+    const result = await tryLogCut(db, user, id, body, cutAt).catch((err: unknown) => {
+      if (isUniqueViolation(err)) return 'stale' as const
       throw err
     })
     if (result !== 'stale') return result

@@ -32,11 +32,7 @@ export async function feedsFor(db: Queryable, shopId: number, q: z.output<typeof
   if (!machine) notFound('machine')
   if (q.cutterId !== undefined && !cutter) notFound('cutter')
   if (cutter && cutter.type_id !== type.id) {
-    throw createError({
-      statusCode: 400,
-      statusMessage: `cutterId: cutter ${cutter.code} is of another cutter type. Choose its own type, or leave the cutter out.`,
-      data: { fields: { cutterId: 'is of another cutter type' } },
-    })
+    fieldError({ cutterId: 'is of another cutter type' }, { message: `cutterId: cutter ${cutter.code} is of another cutter type. Choose its own type, or leave the cutter out.` })
   }
 
   const family = material.family

@@ -1,4 +1,4 @@
-// Tooling cost per job (DESIGN.md computation 6, per job from the runs of NC programs): each run's
+// Tooling cost per job (docs/domain.md, computation 6, per job from the runs of NC programs): each run's
 // cut logs cost minutes × wear factor / rated life new-cutter lives at the type's cost per life
 // (cutCostCents, the same rule as the cost per cut-hour), summed per job reference, and divided
 // by the sheets (repeats) the job's runs cut. Pure.

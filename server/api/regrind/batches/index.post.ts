@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, parseWith(CreateBatchBody))
 
   const { batchId, warnings } = await transaction(async (tx) => {
-    if (body.supplierId) await supplierForField(tx, user.shopId, body.supplierId)
+    await assertSupplier(tx, user.shopId, body.supplierId)
     const { cutters, warnings } = await claimCuttersForBatch(tx, user.shopId, body.cutterIds, null)
     const batch = await tx.insertInto('regrind_batches').values({
       shop_id: user.shopId, supplier_id: body.supplierId ?? null, note: body.note ?? '', created_by: user.id,

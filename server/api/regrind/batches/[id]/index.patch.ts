@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const warnings = await transaction(async (tx) => {
     const batch = await lockRegrindBatch(tx, user.shopId, id)
     requireBatchStatus(batch, 'draft', 'changed')
-    if (body.supplierId) await supplierForField(tx, user.shopId, body.supplierId)
+    await assertSupplier(tx, user.shopId, body.supplierId)
     const remove = new Set(body.removeCutterIds ?? [])
     const add = (body.addCutterIds ?? []).filter((c) => !remove.has(c))
     if (remove.size) {
