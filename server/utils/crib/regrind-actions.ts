@@ -95,7 +95,7 @@ async function receiveItems(tx: Tx, user: SessionUser, batchId: number, items: z
   const seen = new Set<number>()
   items.forEach((item, index) => {
     const c = byId.get(item.cutterId)
-    if (!c) badItem(index, 'cutterId', 'is not in this batch')
+    if (!c) return badItem(index, 'cutterId', 'is not in this batch')
     if (seen.has(item.cutterId)) badItem(index, 'cutterId', 'is listed twice')
     if (c.result !== null) badItem(index, 'cutterId', `${c.code} was already received from this batch`)
     seen.add(item.cutterId)
