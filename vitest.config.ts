@@ -27,7 +27,8 @@ export default defineConfig({
         },
       },
       await defineVitestProject({
-        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt' },
+        // Setting Nuxt up for a file that imports a whole page takes over ten seconds on a busy machine.
+        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', hookTimeout: 60_000 },
       }),
     ],
   },

@@ -13,7 +13,7 @@ export const OrderIdParams = z.object({ id: z.coerce.number().int().positive().m
 export const OrderLineInput = z.object({
   typeId: Id,
   quantity: Quantity,
-  unitCostCents: z.number().int().min(0).max(100_000_000).optional(),
+  unitCostCents: z.number().int().min(0).max(10_000_000, { error: 'must be at most 100000.00' }).optional(),
 })
 
 export const NewOrderBody = z.object({

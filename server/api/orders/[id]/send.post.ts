@@ -16,8 +16,10 @@ export default defineEventHandler(async (event) => {
     await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: new Date() })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
     try {
-      await sendMail(orderMail(view, shop.name, user.name))
+      await sendShopMail(user.shopId, 'order', orderMail(view, shop.name, user.name))
     } catch (err) {
+      // Refused by the shop's mail rules (not confirmed, over the hour's limit): say so as it is.
+      if (isError(err)) throw err
       throw createError({ statusCode: 502, statusMessage: `The mail server did not take the order: ${err instanceof Error ? err.message : err}. Nothing was sent; try again.` })
     }
   })

@@ -3,6 +3,7 @@
 // regrind life fraction) or, when it came back below the type's minimum usable diameter or past
 // its maximum regrinds, is retired instead (shared/kerf/regrind.ts decides). One transaction
 // under the batch's and the cutters' row locks; a second receipt of the same batch is a 409.
+// A cutter no longer out for resharpening is left as it is, so a batch can always come back.
 import { RETIRED_REASON, receiptVerdict, roundMm } from '#shared/kerf/regrind'
 import { BatchIdParams, ReceiveBatchBody } from '#shared/schemas/regrind'
 
@@ -36,7 +37,9 @@ export default defineEventHandler(async (event) => {
       if (seen.has(item.cutterId)) badItem(index, 'cutterId', 'is listed twice')
       seen.add(item.cutterId)
     })
-    const missing = cutters.filter((c) => !seen.has(c.id))
+    // A cutter whose status changed while the batch was out (marked lost, or retired before the
+    // checks of today) has nothing to receive: it stays as it is, so the batch can still come back.
+    const missing = cutters.filter((c) => !seen.has(c.id) && c.status === 'at_regrind')
     if (missing.length) {
       throw createError({
         statusCode: 400,
@@ -44,18 +47,11 @@ export default defineEventHandler(async (event) => {
         data: { fields: { items: `missing ${missing.map((c) => c.code).join(', ')}` } },
       })
     }
-    const away = cutters.filter((c) => c.status !== 'at_regrind')
-    if (away.length) {
-      throw createError({
-        statusCode: 409,
-        statusMessage: `Some cutters are no longer out for resharpening: ${away.map((c) => `${c.code} ${STATUS_SENTENCE[c.status]}`).join('; ')}.`,
-        data: { cutterIds: away.map((c) => c.id) },
-      })
-    }
 
     const now = new Date()
     for (const item of items) {
       const c = byId.get(item.cutterId)!
+      if (c.status !== 'at_regrind') continue
       const diameter = roundMm(item.diameterMm)
       const verdict = receiptVerdict(diameter, c.regrind_count, { maxRegrinds: c.max_regrinds, minUsableDiameterMm: c.min_usable_diameter_mm })
       if (verdict.result === 'reground') {
