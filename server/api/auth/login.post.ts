@@ -1,4 +1,4 @@
-// Sign in with e-mail and password; throttled per account and address (server/utils/throttle.ts).
+// Sign in with e-mail and password; throttled per account and address (server/utils/platform/throttle.ts).
 import { LoginBody } from '#shared/schemas/auth'
 
 // Verified against when the account is unknown, so both answers take the same time.

@@ -1,6 +1,6 @@
 // Ask for a password-reset link. The answer is the same whether or not the account exists, and
 // whether or not a mail went: a link still fresh is neither cancelled nor followed by another,
-// and one address gets only a few links an hour (server/utils/shop-mail.ts).
+// and one address gets only a few links an hour (server/utils/platform/shop-mail.ts).
 import { ResetRequestBody } from '#shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
