@@ -4,10 +4,10 @@
 // form on someone else's page cannot act with the cookie of a person signed in here. A client
 // that sends neither header is not a browser and carries no one's cookie by accident.
 // JSON routes take JSON only: an urlencoded or plain-text form (which any page may submit across
-// sites without asking) is refused too; the one route that takes a photo also takes multipart.
+// sites without asking) is refused too; the photo and NC program uploads also take multipart.
 import type { H3Event } from 'h3'
 
-const MULTIPART_ROUTES = [/^\/api\/cutters\/[^/]+\/flag$/]
+const MULTIPART_ROUTES = [/^\/api\/cutters\/[^/]+\/flag$/, /^\/api\/programs$/]
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS'])
 
 /** The hosts (host:port) this app answers as: the configured public address and the request's own Host. */

@@ -60,9 +60,14 @@ function readUnder(event: H3Event, limit: number, message: string): Promise<Buff
   })
 }
 
+// Routes that read their body as a stream themselves, counting as it arrives under their own
+// limit: the NC program upload (server/utils/spindle/programs.ts).
+const STREAMED = [/^\/api\/programs$/]
+
 export default defineEventHandler(async (event) => {
   if (event.method === 'GET' || event.method === 'HEAD' || !event.path.startsWith('/api/') || !requestHasBody(event)) return
   const path = event.path.split('?')[0]!
+  if (STREAMED.some((re) => re.test(path))) return
   const own = LIMITS.find((l) => l.path.test(path))
   const limit = own?.bytes ?? JSON_BODY_MAX_BYTES
   const message = own?.what ?? `The request is too large: at most ${JSON_BODY_MAX_BYTES / 1024} KB.`

@@ -62,7 +62,7 @@ describe('a cut belongs to a time the bit was in a spindle', () => {
     expect((await cutterState(c!.id)).cutter).toMatchObject({ status: 'in_crib', minutes_total: 12 })
   })
 
-  it('a batch whose bit changed status while it was out can still be received; that bit stays as it is', async () => {
+  it('a batch whose bit changed status while it was out can still be received, that bit written off as it is', async () => {
     const [a, b] = await fx.add([{ lifeUsed: 1 }, { lifeUsed: 1 }])
     const batch = (await shop.crib.post('/api/regrind/batches', { cutterIds: [a!.id, b!.id], supplierId: fx.supplier.id })).body.batch
     await shop.crib.post(`/api/regrind/batches/${batch.id}/send`, {})
@@ -73,7 +73,9 @@ describe('a cut belongs to a time the bit was in a spindle', () => {
     } finally {
       await db.destroy()
     }
-    const received = await shop.crib.post(`/api/regrind/batches/${batch.id}/receive`, { items: [{ cutterId: b!.id, diameterMm: 6.2 }] })
+    const received = await shop.crib.post(`/api/regrind/batches/${batch.id}/receive`, {
+      items: [{ cutterId: a!.id, scrapReason: 'broke before it went out' }, { cutterId: b!.id, diameterMm: 6.2 }],
+    })
     expect(received.status).toBe(200)
     expect(received.body.batch.status).toBe('received')
     expect((await cutterState(a!.id)).cutter).toMatchObject({ status: 'retired', regrind_count: 0 })

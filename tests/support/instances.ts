@@ -97,7 +97,7 @@ export async function signUpShop(baseUrl: string, databaseUrl: string, label: st
   try {
     // The owner's address counts as confirmed, so that the shop may send its report.
     await db.updateTable('users').set({ email_confirmed_at: new Date() }).where('shop_id', '=', id).execute()
-    const machine = await db.insertInto('machines').values({ shop_id: id, name: 'Big table', min_rpm: 6000, max_rpm: 24000, tool_changer: true })
+    const machine = await db.insertInto('machines').values({ shop_id: id, name: 'Big table', min_rpm: 6000, max_rpm: 24000, pockets: 8 })
       .returning('id').executeTakeFirstOrThrow()
     const type = await db.insertInto('cutter_types').values({
       shop_id: id, name: 'Two-flute upcut 1/4"', profile: 'square_end', helix: 'upcut', flutes: 2, cutting_diameter_mm: 6.35,
