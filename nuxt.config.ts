@@ -32,6 +32,7 @@ export default defineNuxtConfig({
     // connections, commits queue in the app instead of being flushed together (npm run bench).
     databasePoolSize: 20,
     smtp: { host: '', port: 0, secure: false, user: '', pass: '', from: '' },
+    // true behind one proxy, or the number of proxies in front (each adds one X-Forwarded-For entry).
     trustProxy: false,
     // A secret that lets a scheduler outside the app run the nightly report by hand
     // (POST /api/tasks/report-nightly with "Authorization: Bearer <token>"); empty turns it off.
@@ -42,8 +43,14 @@ export default defineNuxtConfig({
       dir: '.data/uploads',
       s3: { endpoint: '', region: '', bucket: '', accessKeyId: '', secretAccessKey: '' },
     },
-    loginThrottle: { windowMinutes: 15, perAccount: 5, perAddress: 30 },
-    session: { name: 'kerfbook-session', maxAge: 60 * 60 * 24 * 14 },
+    // perAccount counts failures per account from one address; perAccountEverywhere from all of them.
+    // Mail a shop sends to others per hour; links to one address per hour, and how long a link
+    // stays "fresh" (a new request neither sends another nor cancels it).
+    mailLimits: { perShopPerHour: 100, perAddressPerHour: 3, freshLinkMinutes: 10 },
+    loginThrottle: { windowMinutes: 15, perAccount: 5, perAddress: 30, perAccountEverywhere: 50 },
+    // cookie.secure: NUXT_SESSION_COOKIE_SECURE=false lets a phone sign in over plain HTTP on a
+    // shop's own network; keep it true anywhere else.
+    session: { name: 'kerfbook-session', maxAge: 60 * 60 * 24 * 14, cookie: { sameSite: 'lax', secure: true, httpOnly: true } },
     public: { baseUrl: '' },
   },
   nitro: {

@@ -1,5 +1,5 @@
 // The one Database type, composed from a file of tables per room.
-import type { AuthTokensTable, LoginAttemptsTable, ShopsTable, UsersTable } from './tables/shop'
+import type { AuthTokensTable, LoginAttemptsTable, ShopMailsTable, ShopsTable, UserSessionsTable, UsersTable } from './tables/shop'
 import type {
   ChipLoadsTable, CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable,
 } from './tables/spindle'
@@ -19,6 +19,8 @@ export type * from './tables/programs'
 export interface Database {
   shops: ShopsTable
   users: UsersTable
+  user_sessions: UserSessionsTable
+  shop_mails: ShopMailsTable
   auth_tokens: AuthTokensTable
   login_attempts: LoginAttemptsTable
   machines: MachinesTable

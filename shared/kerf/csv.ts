@@ -31,12 +31,23 @@ export function parseCsv(text: string, known: readonly string[], required: reado
   }
   const columns = records[headerIndex]!.map(normaliseHeader)
   const seen = new Set<string>()
+  const unknown: string[] = []
   columns.forEach((c) => {
     if (!c) problems.push({ row: headerIndex + 1, field: '', message: 'a column has no name in the header row' })
-    else if (!known.includes(c)) problems.push({ row: headerIndex + 1, field: c, message: `unknown column; the columns are ${known.join(', ')}` })
+    else if (!known.includes(c)) unknown.push(c)
     else if (seen.has(c)) problems.push({ row: headerIndex + 1, field: c, message: 'this column appears twice' })
     seen.add(c)
   })
+  // One problem for every unknown column, naming the known ones once: the answer stays in
+  // proportion to the file, however many columns it has.
+  if (unknown.length) {
+    problems.unshift({
+      row: headerIndex + 1,
+      field: unknown.length === 1 ? unknown[0]! : '',
+      message: `unknown column${unknown.length === 1 ? '' : 's'} ${unknown.slice(0, 10).map((c) => `"${c.slice(0, 40)}"`).join(', ')}${
+        unknown.length > 10 ? ` and ${unknown.length - 10} more` : ''}; the columns are ${known.join(', ')}`,
+    })
+  }
   for (const c of required) {
     if (!seen.has(c)) problems.push({ row: headerIndex + 1, field: c, message: 'this column is missing from the header row' })
   }
@@ -57,17 +68,21 @@ export function parseCsv(text: string, known: readonly string[], required: reado
 
 /**
  * A cell a spreadsheet could run as a formula (= + - @, or a tab or carriage return first) gets a
- * leading apostrophe (OWASP "CSV injection"). Ours rather than papaparse's escapeFormulae, whose
- * pattern misses a formula followed by a line break.
+ * leading apostrophe (OWASP "CSV injection"). So does every such start after a separator some
+ * spreadsheet splits on (comma, semicolon in many European locales, tab, pipe, a line break):
+ * opened with another separator than ours, "a;=1+1" becomes two cells, the second a formula.
+ * Ours rather than papaparse's escapeFormulae, whose pattern misses a formula after a line break.
  */
 export function neutraliseCell(value: unknown): string | number {
   if (value === null || value === undefined) return ''
   if (typeof value === 'number') return value
-  const s = String(value)
-  return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s
+  return String(value).replace(/(^|[,;\t|\r\n])([ "]*)(?=[=+\-@\t\r])/g, (_, sep: string, lead: string) => `${sep}${lead}'`)
 }
 
-/** CSV text of a header and rows, every text cell neutralised. */
+/** The byte-order mark that makes spreadsheets read the file as UTF-8 (so ° and × survive). */
+export const UTF8_BOM = '\uFEFF'
+
+/** CSV text of a header and rows, every text cell neutralised, with a byte-order mark first. */
 export function toCsv(columns: readonly string[], rows: ReadonlyArray<ReadonlyArray<unknown>>): string {
-  return Papa.unparse({ fields: [...columns], data: rows.map((r) => r.map(neutraliseCell)) }, { newline: '\r\n' })
+  return UTF8_BOM + Papa.unparse({ fields: [...columns], data: rows.map((r) => r.map(neutraliseCell)) }, { newline: '\r\n' })
 }

@@ -31,6 +31,7 @@ export const InvitationBody = z.object({
 export const AcceptInvitationBody = z.object({ token: Token, password: Password, name: PersonName.optional() })
 export const ResetRequestBody = z.object({ email: Email })
 export const ResetBody = z.object({ token: Token, password: Password })
+export const ConfirmEmailBody = z.object({ token: Token })
 
 export const MeUpdateBody = z.object({
   name: PersonName.optional(),

@@ -21,7 +21,10 @@ export const TYPE_REQUIRED = ['name', 'profile', 'helix', 'flutes', 'cutting_dia
 
 export const CUTTER_COLUMNS = ['type', 'diameter_mm', 'status', 'regrind_count', 'life_used_percent', 'note'] as const
 export const CUTTER_REQUIRED = ['type'] as const
-export const IMPORT_STATUSES = ['in_crib', 'at_regrind', 'lost'] as const
+// Not at_regrind: a cutter is out for resharpening only inside a batch that can come back, so
+// one at the regrinder today is imported in_crib and sent in a batch (else nothing could receive it).
+export const IMPORT_STATUSES = ['in_crib', 'lost'] as const
+const AT_REGRIND_ON_IMPORT = 'cannot be at_regrind: import it as in_crib, then put it in a resharpening batch and send the batch, so that it can be received back'
 
 /** Imports are written in one statement each; these keep them well inside PostgreSQL's parameter limit. */
 export const MAX_IMPORT_ROWS: Record<ImportKind, number> = { 'cutter-types': 1000, 'cutters': 5000 }
@@ -122,7 +125,7 @@ export interface TypeForImport { id: number, name: string, cuttingDiameterMm: nu
 
 const CutterRow = z.object({
   diameterMm: z.number({ error: 'enter a diameter in millimetres' }).min(0.001, { error: 'must be at least 0.001 mm' }).max(1000, { error: 'must be at most 1000 mm' }),
-  status: z.enum(IMPORT_STATUSES, { error: 'must be in_crib, at_regrind or lost' }),
+  status: z.enum(IMPORT_STATUSES, { error: (issue) => (issue.input === 'at_regrind' ? AT_REGRIND_ON_IMPORT : 'must be in_crib or lost') }),
   regrindCount: z.number({ error: 'enter a whole number' }).int({ error: 'must be a whole number' }).min(0, { error: 'cannot be negative' }).max(20, { error: 'must be at most 20' }),
   lifeUsed: z.number({ error: 'enter a percentage like 40' }).min(0, { error: 'cannot be negative' }).max(10, { error: 'must be at most 1000' }),
   note: z.string().max(2000, { error: 'use at most 2000 characters' }),

@@ -1,5 +1,6 @@
 // The shape of the sealed session cookie (nuxt-auth-utils). Only ids travel in it: the role
-// shown to the client is a hint; the server re-reads the user on every request.
+// shown to the client is a hint; the server re-reads the user on every request. `secure.sid`
+// names the session's row (server/utils/platform/auth.ts) and never reaches the client.
 declare module '#auth-utils' {
   interface User {
     id: number
@@ -9,6 +10,9 @@ declare module '#auth-utils' {
   }
   interface UserSession {
     loggedInAt?: number
+  }
+  interface SecureSessionData {
+    sid?: string
   }
 }
 

@@ -3,7 +3,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { newLabelCode } from '../../shared/kerf/label-code'
 import { appDb } from '../support/db'
-import { makeShop, type TestShop } from '../support/shops'
+import { makeShop, TEST_PASSWORD, type TestShop } from '../support/shops'
 
 let a: TestShop
 let b: TestShop
@@ -16,6 +16,9 @@ describe('a change of role', () => {
   it('a demoted person loses the role at once, whatever the cookie says', async () => {
     const shop = await makeShop('Demotion')
     expect((await shop.owner.patch(`/api/users/${shop.ids.crib}`, { role: 'operator' })).status).toBe(200)
+    // The change of role ended the session; signed in again, the person has the new role.
+    expect((await shop.crib.get('/api/me')).status).toBe(401)
+    await shop.crib.login(shop.emails.crib, TEST_PASSWORD)
     const me = await shop.crib.get('/api/me')
     expect(me.body.role).toBe('operator')
     expect((await shop.crib.get('/api/cutters')).status).toBe(403)

@@ -91,7 +91,7 @@ describe('importing cutters already in the shop', () => {
     const before = await count('cutters')
     const csv = 'type,diameter_mm,status,regrind_count,life_used_percent,note\n'
       + 'Two-flute upcut 1/4",,in_crib,0,0,\n'
-      + 'two-flute upcut 1/4",6.1,at_regrind,1,100,sent with batch 4\n'
+      + 'two-flute upcut 1/4",6.1,in_crib,1,100,back from batch 4\n'
       + 'Two-flute upcut 1/4",6.2,lost,,,'
     const res = await shop.crib.post('/api/import/cutters', { csv })
     expect(res.status).toBe(201)
@@ -103,14 +103,14 @@ describe('importing cutters already in the shop', () => {
       const rows = await db.selectFrom('cutters').selectAll().where('id', 'in', res.body.ids).orderBy('id').execute()
       expect(rows.map((r) => [r.type_id, r.status, r.diameter_mm, r.regrind_count, r.life_used, r.life_scale])).toEqual([
         [fx.typeId, 'in_crib', 6.35, 0, 0, 1],
-        [fx.typeId, 'at_regrind', 6.1, 1, 1, 0.8],
+        [fx.typeId, 'in_crib', 6.1, 1, 1, 0.8],
         [fx.typeId, 'lost', 6.2, 0, 0, 1],
       ])
       expect(rows.map((r) => r.code)).toEqual(res.body.codes)
       const events = await db.selectFrom('cutter_events').select(['kind', 'note']).where('cutter_id', 'in', res.body.ids).execute()
       expect(events).toHaveLength(3)
       expect(events.every((e) => e.kind === 'received')).toBe(true)
-      expect(events.some((e) => e.note.endsWith('row 3): sent with batch 4'))).toBe(true)
+      expect(events.some((e) => e.note.endsWith('row 3): back from batch 4'))).toBe(true)
     } finally {
       await db.destroy()
     }
@@ -123,7 +123,7 @@ describe('importing cutters already in the shop', () => {
     expect(res.status).toBe(400)
     expect(res.body.data.rows).toEqual([
       { row: 3, field: 'type', message: 'no cutter type named "Mystery bit" in the catalogue' },
-      { row: 4, field: 'status', message: 'must be in_crib, at_regrind or lost' },
+      { row: 4, field: 'status', message: 'must be in_crib or lost' },
     ])
     expect(await count('cutters')).toBe(before)
   })
@@ -153,11 +153,15 @@ describe('exports', () => {
     expect(res.status).toBe(200)
     expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
     expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="inventory-\d{4}-\d{2}-\d{2}\.csv"$/)
+    // A byte-order mark first (EF BB BF), so that spreadsheets read the file as UTF-8 (The Unicode
+    // Standard, section 23.8). Reading the answer as text drops it, as a spreadsheet does.
+    const bytes = new Uint8Array(await (await shop.crib.raw('/api/export/inventory.csv')).arrayBuffer())
+    expect([...bytes.slice(0, 3)]).toEqual([0xEF, 0xBB, 0xBF])
     const parsed = Papa.parse<Record<string, string>>(res.body, { header: true, skipEmptyLines: true })
     expect(parsed.errors).toEqual([])
     expect(parsed.data).toHaveLength(await count('cutters'))
     expect(parsed.meta.fields).toEqual(['code', 'type', 'status', 'machine', 'diameter_mm', 'regrind_count', 'life_used_percent', 'minutes_total'])
-    expect(parsed.data.find((r) => r.code === fx.cutters[0]!.code)).toMatchObject({ life_used_percent: '45.6', minutes_total: '123.5', status: 'in_crib' })
+    expect(parsed.data.find((r) => r.code === fx.cutters[0]!.code)).toMatchObject({ life_used_percent: '45.6', minutes_total: '123.5', status: 'In the crib' })
     expect(parsed.data.filter((r) => r.type === `'${evil.body.name}`)).toHaveLength(1)
     expect(parsed.data.some((r) => r.type?.startsWith('='))).toBe(false)
   })
@@ -176,14 +180,16 @@ describe('exports', () => {
     } finally {
       await db.destroy()
     }
+    await shop.owner.patch('/api/shop', { timeZone: 'America/Chicago' })
     const res = await shop.crib.get<string>('/api/export/cut-logs.csv?from=2026-04-01&to=2026-04-02')
     expect(res.status).toBe(200)
     expect(res.headers.get('content-disposition')).toBe('attachment; filename="cut-logs-2026-04-01-to-2026-04-02.csv"')
     const parsed = Papa.parse<Record<string, string>>(res.body, { header: true, skipEmptyLines: true })
     expect(parsed.data.map((r) => r.minutes)).toEqual(['11', '12'])
+    // The shop's zone here is America/Chicago, CDT (UTC-5) on 1 April 2026 (IANA tz database).
     expect(parsed.data[0]).toMatchObject({
-      time_utc: '2026-04-01T00:00:00.000Z', cutter_code: fx.cutters[1]!.code, type: 'Two-flute upcut 1/4"', machine: 'Big table with changer',
-      operator: 'Test Operator', material: materials[0]!.name, outcome: 'clean', rpm: '18000', feed_mm_per_min: '2500', note: '\'@SUM(1,2) melted edge',
+      date: '2026-03-31', time: '19:00', time_zone: 'America/Chicago', cutter_code: fx.cutters[1]!.code, type: 'Two-flute upcut 1/4"', machine: 'Big table with changer',
+      operator: 'Test Operator', material: materials[0]!.name, outcome: 'Clean', rpm: '18000', feed_mm_per_min: '2500', note: '\'@SUM(1,2) melted edge',
     })
     const elsewhere = await other.crib.get('/api/export/cut-logs.csv?from=2026-04-01&to=2026-04-02')
     expect(elsewhere.body.trim().split('\n')).toHaveLength(1)

@@ -7,7 +7,7 @@ import { newLabelCode } from '../../shared/kerf/label-code'
 import { appDb } from '../support/db'
 import type { Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
-import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
+import { addSpindleFixture, loadCutters, type SpindleFixture } from '../support/spindle'
 
 let shop: TestShop
 let other: TestShop
@@ -168,6 +168,7 @@ describe('the learned nudge from the shop\'s own cut logs', () => {
     const log = (outcome: string, rpm: number | undefined, feedMmPerMin: number | undefined, materialId = material.Polycarbonate) =>
       shop.operator.post(`/api/cutters/${cutterId}/cuts`, { idempotencyKey: `test-${randomUUID()}`, materialId, minutes: 5, outcome, rpm, feedMmPerMin })
 
+    await loadCutters(shop.operator, [cutterId], fx.machines.changer)
     for (const [rpm, feed] of [[18000, 3000], [16000, 2800], [18000, 3600]] as const) expect((await log('clean', rpm, feed)).status).toBe(201)
     expect((await feeds(shop.operator, q)).body.learned).toBeNull()
 

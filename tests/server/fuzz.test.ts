@@ -25,7 +25,7 @@ import { addShopRecords, type ShopRecords } from '../support/records'
 import { apiRoutes, fillPath, type ApiRoute } from '../support/routes'
 import { testSeed } from '../support/seed'
 import { makeShop, type TestShop } from '../support/shops'
-import { addSpindleFixture } from '../support/spindle'
+import { addSpindleFixture, loadCutters } from '../support/spindle'
 
 // Runs per route; KERFBOOK_FUZZ_RUNS scales them. The seed is fixed in CI and random (printed)
 // locally; KERFBOOK_FUZZ_SEED replays a failing run (tests/support/seed.ts).
@@ -108,6 +108,10 @@ const FUZZ: Record<string, FuzzEntry> = {
   'POST /api/auth/login': { who: 'none', fields: { email: email(), password: str(200, { min: 1, trim: false }) }, valid: () => ({ email: 'fuzz-nobody@example.com', password: 'x' }) },
   'ALL /api/[...path]': { special: 'answers 404 to any path no route answers, whatever it is sent (tests/server/routes.test.ts)' },
   'POST /api/auth/logout': { special: 'reads no input: answers 204 to anything, without a session or with one (checked below)' },
+  'POST /api/auth/logout-everywhere': { special: 'reads no input: ends the caller\'s sessions (tests/server/security.test.ts)' },
+  'POST /api/me/confirmation': { special: 'reads no input: sends the confirmation link again (tests/server/security.test.ts)' },
+  'POST /api/auth/confirm': { who: 'none', fields: { token }, valid: () => ({ token: 'x'.repeat(43) }) },
+  'POST /api/users/[id]/sign-out': { pathOnly: true, params: (_, s) => ({ id: s.ids.operator }) },
   'POST /api/auth/reset-request': { who: 'none', fields: { email: email() }, valid: () => ({ email: 'fuzz-nobody@example.com' }) },
   'POST /api/auth/reset': { who: 'none', fields: { token, password }, valid: () => ({ token: 'x'.repeat(43), password: 'a-long-enough-password' }) },
   'POST /api/auth/signup': {
@@ -129,8 +133,8 @@ const FUZZ: Record<string, FuzzEntry> = {
       reportTime: custom(fc.constantFrom('24:00', '5:30', '12:60', 'noon', '05:30:00', '05-30', ' 05:30', 0), { optional: true }),
       reportRecipients: list(email(), 0, 20, { optional: true, nullable: true }),
       dailyAllClear: bool({ optional: true }),
-      lifeThreshold: num(0.001, 1.5, { optional: true }),
-      regrindLifeFraction: num(0.001, 1, { optional: true }),
+      lifeThreshold: num(0.5, 1.5, { optional: true }),
+      regrindLifeFraction: num(0.1, 1, { optional: true }),
       orderCostCents: int(0, 10_000_000, { optional: true }),
       holdingRate: num(0.001, 5, { optional: true }),
       labourRateCentsPerHour: int(0, 1_000_000, { optional: true, nullable: true }),
@@ -520,7 +524,7 @@ describe('hostile input', () => {
     expect(deep.status).toBe(400)
     const wide = encode({ name: 'Wide', note: Array.from({ length: 200_000 }, (_, i) => ({ [`k${i}`]: `v${i}` })) })
     const big = await shop.owner.send('POST', '/api/suppliers', wide, { 'content-type': 'application/json' })
-    // Refused by its length before it is read (server/middleware/body-limit.ts).
+    // Refused by its length before it is read (server/middleware/2.body-limit.ts).
     expect(big.status).toBe(413)
     expect(big.body.message).toMatch(/too large: at most 256 KB/)
     await assertUnchanged('the deep and wide bodies')
@@ -538,11 +542,13 @@ describe('hostile input', () => {
     expect(bad, problemsOf('the task route answered other than 401')).toEqual([])
   })
 
-  it('sign-out reads nothing: any body answers 204, and the session it was sent with is gone', async () => {
+  it('sign-out reads nothing: any JSON body answers 204, any other 415 (server/middleware/1.same-origin.ts)', async () => {
     const bodies = fc.sample(hostileBody({ a: str(10) }, { a: 'x' }, { emptyIsValid: false }), { numRuns: 20, seed: SEED - 5 })
-    const bad = await sendAll(bodies, (s) => new Client().send('POST', '/api/auth/logout', s.body, s.contentType ? { 'content-type': s.contentType } : {}),
-      (status) => status === 204, (s) => show(s.body))
-    expect(bad).toEqual([])
+    const isJson = (s: { body: string, contentType?: string }) => s.contentType === 'application/json' || s.body === ''
+    const logout = (s: { body: string, contentType?: string }) => new Client().send('POST', '/api/auth/logout', s.body, s.contentType ? { 'content-type': s.contentType } : {})
+    const badJson = await sendAll(bodies.filter(isJson), logout, (status) => status === 204, (s) => show(s.body))
+    const badOther = await sendAll(bodies.filter((s) => !isJson(s)), logout, (status) => status === 415, (s) => show(s.body))
+    expect([...badJson, ...badOther]).toEqual([])
   })
 
   // Valid bodies at the edges of what each field accepts (the smallest step above a bound, the
@@ -653,6 +659,7 @@ describe('hostile input the fuzz found', () => {
     const fixture = await addSpindleFixture(other.id, 1, 0.01)
     const material = (await other.operator.get('/api/materials')).body[0]
     const cutter = fixture.cutters[0]!
+    await loadCutters(other.operator, [cutter.id], fixture.machines.changer)
     for (let i = 0; i < 2; i++) {
       const res = await other.operator.post(`/api/cutters/${cutter.id}/cuts`, { idempotencyKey: randomUUID(), materialId: material.id, minutes: 1440, outcome: 'clean' })
       expect(res.status).toBe(201)
@@ -665,6 +672,7 @@ describe('hostile input the fuzz found', () => {
     const fixture = await addSpindleFixture(other.id, 1)
     expect((await other.crib.patch(`/api/cutter-types/${fixture.typeId}`, { unitCostCents: 0 })).status).toBe(200)
     const material = (await other.operator.get('/api/materials')).body[0]
+    await loadCutters(other.operator, [fixture.cutters[0]!.id], fixture.machines.changer)
     const cut = await other.operator.post(`/api/cutters/${fixture.cutters[0]!.id}/cuts`, { idempotencyKey: randomUUID(), materialId: material.id, minutes: 60, outcome: 'clean' })
     expect(cut.status).toBe(201)
     const reorder = await other.crib.get('/api/reorder')

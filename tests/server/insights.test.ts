@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../support/db'
 import type { Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
-import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
+import { addSpindleFixture, loadCutters, type SpindleFixture } from '../support/spindle'
 
 let shop: TestShop
 let other: TestShop
@@ -30,12 +30,22 @@ beforeAll(async () => {
   mat = Object.fromEntries(list.map((m) => [m.name, m.id]))
   const [c0, c1, c2] = fx.cutters
   const { changer, single } = fx.machines
+  await loadCutters(shop.operator, [c0!.id], changer)
+  await loadCutters(shop.operator, [c1!.id], single)
+  await loadCutters(other.operator, [otherFx.cutters[0]!.id], otherFx.machines.changer)
+  // c2's cut waited on a phone and arrives after the bit went back to the crib: it is logged at
+  // the time it was cut (while loaded), with no machine recorded.
+  await loadCutters(shop.operator, [c2!.id], changer)
+  await new Promise((r) => setTimeout(r, 30))
+  const c2CutAt = new Date().toISOString()
+  await new Promise((r) => setTimeout(r, 30))
+  expect((await shop.operator.post(`/api/cutters/${c2!.id}/return`)).status).toBe(200)
   const logs = [
     cut(shop.operator, c0!.id, { materialId: mat.MDF, minutes: 120, machineId: changer }),
     cut(shop.operator, c0!.id, { materialId: mat['Cast acrylic'], minutes: 60, machineId: changer, outcome: 'melted' }),
     cut(shop.operator, c0!.id, { materialId: mat['Aluminium composite panel'], minutes: 90, machineId: changer, outcome: 'chip_out' }),
     cut(shop.operator, c1!.id, { materialId: mat.MDF, minutes: 30, machineId: single, outcome: 'fuzzy' }),
-    cut(shop.operator, c2!.id, { materialId: mat.MDF, minutes: 300 }),
+    cut(shop.operator, c2!.id, { materialId: mat.MDF, minutes: 300, cutAt: c2CutAt }),
   ]
   for (const res of await Promise.all(logs)) expect(res.status).toBe(201)
   expect((await cut(shop.operator, c1!.id, { materialId: mat.HDPE, minutes: 45, machineId: single, outcome: 'broken' })).status).toBe(201)

@@ -6,7 +6,7 @@ import { freshDatabase, migrate } from '../support/db'
 import { down as dropChipLoads, up as addChipLoads } from '../../migrations/2026_12_04_0001_feeds'
 import { down as machinesDown, up as machinesUp } from '../../migrations/2026_12_07_0001_machines'
 
-const TABLES = ['shops', 'users', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
+const TABLES = ['shops', 'users', 'user_sessions', 'shop_mails', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
   'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
   'regrind_batch_items', 'tooling_reports', 'chip_loads', 'cut_log_daily', 'cut_sharp_lives', 'cut_cleanup_daily', 'wear_factor_adoptions',
   'machine_tool_pockets', 'nc_programs', 'nc_runs', 'nc_run_logs']

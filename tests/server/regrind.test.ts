@@ -108,6 +108,7 @@ describe('the round trip: due list, batch, send, receive back', () => {
     // The new life, by the Palmgren–Miner linear damage rule with the life scaled after a
     // regrind: life used = minutes × wear factor / (rated life × regrind life fraction).
     const mdf = (await shop.operator.get('/api/materials')).body.find((m: { name: string }) => m.name === 'MDF')
+    expect((await shop.operator.post(`/api/cutters/${worn!.id}/load`, { machineId: fx.machineId })).status).toBe(200)
     const cut = await shop.operator.post(`/api/cutters/${worn!.id}/cuts`, { idempotencyKey: `test-${randomUUID()}`, materialId: mdf.id, minutes: 90, outcome: 'clean' })
     expect(cut.status).toBe(201)
     expect(cut.body.lifeUsed).toBeCloseTo((90 * mdf.wearFactor) / (REGRIND_TYPE.ratedLifeMinutes * FRACTION), 5)

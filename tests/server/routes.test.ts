@@ -75,6 +75,16 @@ const TABLE: Record<string, Entry> = {
       expect(res.body.data.fields).toHaveProperty('email')
     },
   },
+  'POST /api/auth/confirm': {
+    public: 'the confirmation link is the credential (it may be opened on another device)',
+    check: async () => {
+      const res = await noSession().post('/api/auth/confirm', { token: UNKNOWN_TOKEN })
+      expect(res.status).toBe(404)
+      expect(res.body.message).toMatch(/confirmation link is not valid/)
+    },
+  },
+  'POST /api/auth/logout-everywhere': { role: 'operator' },
+  'POST /api/me/confirmation': { role: 'operator' },
   'POST /api/auth/reset-request': {
     public: 'asking for a reset link',
     check: async () => expect((await noSession().post('/api/auth/reset-request', { email: `nobody-${randomUUID().slice(0, 8)}@example.com` })).status).toBe(202),
@@ -217,6 +227,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/uploads/[id]': { role: 'operator', tenancy: ({ ra }) => ({ params: { id: ra.uploadId } }) },
   'GET /api/users': { role: 'owner' },
   'PATCH /api/users/[id]': { role: 'owner', tenancy: ({ a }) => ({ params: { id: a.ids.operator }, body: { role: 'owner' } }) },
+  'POST /api/users/[id]/sign-out': { role: 'owner', tenancy: ({ a }) => ({ params: { id: a.ids.operator }, body: {} }) },
 }
 
 const clientOf = (shop: TestShop, role: Role) => ({ operator: shop.operator, crib_manager: shop.crib, owner: shop.owner })[role]
@@ -314,7 +325,9 @@ describe('every route', () => {
       const before = await shopChecksum(db, ctx.a.id)
       const wrong: string[] = []
       // Runs the report and sends it whatever it is sent; reports.test.ts has the owner doing so.
-      const readsNoInput = new Set(['POST /api/reports/run'])
+      // Signing out everywhere and sending the confirmation link again read nothing either
+      // (tests/server/security.test.ts): sent here, they would end the sessions this file uses.
+      const readsNoInput = new Set(['POST /api/reports/run', 'POST /api/auth/logout-everywhere', 'POST /api/me/confirmation'])
       for (const route of guarded().filter((r) => r.method !== 'GET' && !readsNoInput.has(r.key))) {
         const entry = TABLE[route.key] as Guarded
         // A record that does not exist and a body that is no object: whichever the route checks

@@ -29,3 +29,11 @@ export async function addSpindleFixture(shopId: number, cutterCount = 3, ratedLi
     await db.destroy()
   }
 }
+
+/** Loads cutters into a machine through the route, as an operator does: a cut is logged only on a loaded cutter. */
+export async function loadCutters(client: { post: (path: string, body?: unknown) => Promise<{ status: number, body: unknown }> }, cutterIds: number[], machineId: number) {
+  for (const id of cutterIds) {
+    const res = await client.post(`/api/cutters/${id}/load`, { machineId })
+    if (res.status !== 200) throw new Error(`loading cutter ${id} answered ${res.status}: ${JSON.stringify(res.body)}`)
+  }
+}

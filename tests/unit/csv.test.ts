@@ -49,8 +49,19 @@ describe('writing', () => {
     expect(neutraliseCell(null)).toBe('')
   })
 
+  // The same attack after a separator that spreadsheets of other locales split on (semicolon,
+  // tab, pipe, comma, a line break): opened that way, the cell splits and its second part runs.
+  it.each([['a;=1+1', 'a;\'=1+1'], ['x,-2+3', 'x,\'-2+3'], ['x\t@cmd', 'x\t\'@cmd'], ['a|+1', 'a|\'+1'], ['a; "=1', 'a; "\'=1'], ['a\n=1', 'a\n\'=1']])(
+    'neutralises a formula after a separator in %j', (cell, safe) => {
+      expect(neutraliseCell(cell)).toBe(safe)
+    })
+
+  it('starts with a UTF-8 byte-order mark so that spreadsheets read ° and ×', () => {
+    expect(toCsv(['note'], [['90° V × 2']]).startsWith('\uFEFFnote\r\n')).toBe(true)
+  })
+
   it('writes CSV that papaparse reads back', () => {
-    const text = toCsv(['code', 'note'], [['K7Q2', 'has, comma and "quotes"'], ['ZX4H', '=cmd']])
+    const text = toCsv(['code', 'note'], [['K7Q2', 'has, comma and "quotes"'], ['ZX4H', '=cmd']]).slice(1)
     const back = Papa.parse<string[]>(text, { skipEmptyLines: true }).data
     expect(back).toEqual([['code', 'note'], ['K7Q2', 'has, comma and "quotes"'], ['ZX4H', '\'=cmd']])
   })
@@ -103,12 +114,18 @@ describe('cutter rows', () => {
   ])
 
   it('fills a blank diameter from the type and a blank status with in_crib', () => {
-    const read = readCutterCsv('type,diameter_mm,status,regrind_count,life_used_percent,note\nupcut 1/4,,,,,\nUpcut 1/4,6.1,At regrind,1,40 %,sent\n', types)
+    const read = readCutterCsv('type,diameter_mm,status,regrind_count,life_used_percent,note\nupcut 1/4,,,,,\nUpcut 1/4,6.1,In crib,1,40 %,back\n', types)
     expect(read.problems).toEqual([])
     expect(read.values).toEqual([
       { row: 2, typeId: 11, diameterMm: 6.35, status: 'in_crib', regrindCount: 0, lifeUsed: 0, note: '' },
-      { row: 3, typeId: 11, diameterMm: 6.1, status: 'at_regrind', regrindCount: 1, lifeUsed: 0.4, note: 'sent' },
+      { row: 3, typeId: 11, diameterMm: 6.1, status: 'in_crib', regrindCount: 1, lifeUsed: 0.4, note: 'back' },
     ])
+  })
+
+  it('refuses a cutter "at regrind", which no batch could ever receive, and says what to do instead', () => {
+    const read = readCutterCsv('type,status\nUpcut 1/4,At regrind\n', types)
+    expect(read.values).toEqual([])
+    expect(read.problems).toEqual([{ row: 2, field: 'status', message: expect.stringMatching(/^cannot be at_regrind: import it as in_crib, then put it in a resharpening batch/) }])
   })
 
   it('names unknown and archived types, statuses it cannot import, and too many regrinds', () => {

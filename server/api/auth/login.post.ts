@@ -1,4 +1,4 @@
-// Sign in with e-mail and password; throttled per account and per address.
+// Sign in with e-mail and password; throttled per account and address (server/utils/platform/throttle.ts).
 import { LoginBody } from '#shared/schemas/auth'
 
 // Verified against when the account is unknown, so both answers take the same time.
@@ -7,7 +7,7 @@ let decoyHash: Promise<string> | undefined
 export default defineEventHandler(async (event) => {
   const { email, password } = await readValidatedBody(event, parseWith(LoginBody))
   const address = clientAddress(event)
-  await assertNotThrottled(event, email, address)
+  const attempt = await claimLoginAttempt(event, email, address)
 
   const db = useDb()
   const user = await db.selectFrom('users')
@@ -17,7 +17,6 @@ export default defineEventHandler(async (event) => {
   decoyHash ??= hashPassword('kerfbook-decoy-password')
   const ok = await verifyPassword(user?.password_hash ?? await decoyHash, password)
   if (!user || !user.password_hash || !ok || !user.active) {
-    await recordLoginAttempt(email, address, false)
     throw createError({
       statusCode: 401,
       statusMessage: user && ok && !user.active
@@ -25,7 +24,7 @@ export default defineEventHandler(async (event) => {
         : 'Wrong e-mail or password.',
     })
   }
-  await recordLoginAttempt(email, address, true)
+  await loginSucceeded(attempt)
   await db.updateTable('users').set({ last_login_at: new Date() }).where('id', '=', user.id).execute()
   await startSession(event, { id: user.id, shopId: user.shop_id, name: user.name, role: user.role })
   return loadMe(db, user.id)

@@ -1,6 +1,7 @@
-// Sign out: the sealed cookie is cleared.
+// Sign out: this session's row goes and the sealed cookie is cleared, so a copy of the cookie
+// taken before stops working too.
 export default defineEventHandler(async (event) => {
-  await clearUserSession(event)
+  await endSession(event)
   setResponseStatus(event, 204)
   return null
 })

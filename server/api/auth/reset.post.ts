@@ -10,6 +10,8 @@ export default defineEventHandler(async (event) => {
       throw createError({ statusCode: 404, statusMessage: 'This reset link is not valid any more. Ask for a new one.' })
     }
     await tx.updateTable('users').set({ password_hash: passwordHash }).where('id', '=', found.userId).execute()
+    // A new password ends every session the old one opened.
+    await endSessions(tx, found.userId)
     return found
   })
   await startSession(event, { id: user.userId, shopId: user.shopId, name: user.name, role: user.role })

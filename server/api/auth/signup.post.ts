@@ -26,6 +26,10 @@ export default defineEventHandler(async (event) => {
     throw err
   })
   await startSession(event, { id: owner.id, shopId: owner.shop_id, name: owner.name, role: owner.role })
+  // The shop mails no one else until its owner confirms this address (server/utils/platform/shop-mail.ts).
+  // A mail server that is down must not lose the sign-up: the account page sends the link again.
+  await sendConfirmation(event, { id: owner.id, shopId: owner.shop_id, name: owner.name, email: body.email })
+    .catch((err: unknown) => console.error(`[signup] the confirmation mail to ${body.email} failed:`, err))
   setResponseStatus(event, 201)
   return loadMe(db, owner.id)
 })

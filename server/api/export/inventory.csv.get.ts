@@ -1,5 +1,7 @@
 // Every cutter of the shop as CSV: label code, type, status, machine, diameter, regrinds, life
-// used and minutes cut.
+// used and minutes cut; statuses in words.
+import { STATUS_LABELS } from '#shared/kerf/status'
+
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'crib_manager')
   const rows = await useDb().selectFrom('cutters as c')
@@ -12,5 +14,5 @@ export default defineEventHandler(async (event) => {
   const day = new Date().toISOString().slice(0, 10)
   return sendCsv(event, `inventory-${day}.csv`,
     ['code', 'type', 'status', 'machine', 'diameter_mm', 'regrind_count', 'life_used_percent', 'minutes_total'],
-    rows.map((r) => [r.code, r.type, r.status, r.machine ?? '', r.diameter_mm, r.regrind_count, Math.round(r.life_used * 1000) / 10, r.minutes_total]))
+    rows.map((r) => [r.code, r.type, STATUS_LABELS[r.status], r.machine ?? '', r.diameter_mm, r.regrind_count, Math.round(r.life_used * 1000) / 10, r.minutes_total]))
 })

@@ -10,7 +10,8 @@ export default defineEventHandler(async (event) => {
       throw createError({ statusCode: 404, statusMessage: 'This invitation is not valid any more. Ask the shop owner to send a new one.' })
     }
     await tx.updateTable('users')
-      .set({ password_hash: passwordHash, last_login_at: new Date(), ...(body.name && { name: body.name }) })
+      // The invitation reached this address, which confirms it.
+      .set({ password_hash: passwordHash, last_login_at: new Date(), email_confirmed_at: new Date(), ...(body.name && { name: body.name }) })
       .where('id', '=', found.userId).where('shop_id', '=', found.shopId)
       .execute()
     return { ...found, name: body.name ?? found.name }

@@ -32,7 +32,7 @@ export default defineEventHandler(async (event) => {
     }
     throw err
   })
-  await sendMail(invitationMail({
+  await sendShopMail(owner.shopId, 'invitation', invitationMail({
     to: user.email, name: user.name, shopName, role: user.role, invitedBy: owner.name,
     link: `${publicBaseUrl(event)}/invite/${token}`,
   }))

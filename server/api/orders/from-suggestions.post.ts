@@ -1,6 +1,12 @@
 // Turn reorder suggestions into draft purchase orders, one per supplier; a supplier's open
-// draft gets the new lines instead of a second draft.
+// draft gets the new lines instead of a second draft. Idempotent per supplier: the shop's drafts
+// are made under one lock, so pressing twice at once finds the first press's draft and sets the
+// same quantities on it again.
+import { sql } from 'kysely'
 import { FromSuggestionsBody } from '#shared/schemas/orders'
+
+// The first key of the advisory lock that makes a shop's drafts from suggestions take turns.
+const DRAFT_LOCK = 0x44524654
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'crib_manager')
@@ -14,6 +20,7 @@ export default defineEventHandler(async (event) => {
     else bySupplier.set(r.supplierId, [...(bySupplier.get(r.supplierId) ?? []), r])
   }
   const orderIds = await transaction(async (tx) => {
+    await sql`select pg_advisory_xact_lock(${DRAFT_LOCK}, ${user.shopId})`.execute(tx)
     const ids: number[] = []
     for (const [supplierId, suggestions] of bySupplier) {
       const draft = await tx.selectFrom('purchase_orders').select('id')

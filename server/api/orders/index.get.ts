@@ -9,9 +9,10 @@ export default defineEventHandler(async (event) => {
     .select([
       'o.id', 'o.status', 'o.created_at', 'o.sent_at', 'o.received_at', 's.name as supplier_name',
       sql<number>`count(l.id)::int`.as('line_count'),
-      sql<number>`coalesce(sum(l.quantity), 0)::int`.as('quantity'),
-      sql<number>`coalesce(sum(l.received_quantity), 0)::int`.as('received_quantity'),
-      sql<number>`coalesce(sum(l.quantity * l.unit_cost_cents), 0)::bigint`.as('total_cents'),
+      sql<number>`coalesce(sum(l.quantity), 0)::bigint`.as('quantity'),
+      sql<number>`coalesce(sum(l.received_quantity), 0)::bigint`.as('received_quantity'),
+      // Money in bigint before it is multiplied: 10,000 x 2,500.00 overflows an integer.
+      sql<number>`coalesce(sum(l.quantity::bigint * l.unit_cost_cents), 0)::bigint`.as('total_cents'),
     ])
     .where('o.shop_id', '=', user.shopId)
     .groupBy(['o.id', 's.name'])

@@ -1,5 +1,5 @@
 // The owner changes someone's role or switches their account off (or on again). The shop
-// always keeps at least one active owner.
+// always keeps at least one active owner who can sign in.
 import { z } from 'zod'
 import { UserUpdateBody } from '#shared/schemas/auth'
 
@@ -10,9 +10,11 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, parseWith(Params))
   const body = await readValidatedBody(event, parseWith(UserUpdateBody))
   return transaction(async (tx) => {
-    // Lock the shop's owners so two owners demoting each other at once cannot leave none.
+    // Lock the shop's owners so two owners demoting each other at once cannot leave none. Only
+    // owners who can sign in count: one invited but never joined has no password yet.
     const owners = await tx.selectFrom('users').select('id')
       .where('shop_id', '=', owner.shopId).where('role', '=', 'owner').where('active', '=', true)
+      .where('password_hash', 'is not', null)
       .forUpdate().execute()
     const target = await tx.selectFrom('users').select(['id', 'role', 'active'])
       .where('id', '=', id).where('shop_id', '=', owner.shopId).executeTakeFirst()
@@ -21,10 +23,14 @@ export default defineEventHandler(async (event) => {
     if (owners.some((o) => o.id === id) && !staysOwner && owners.length <= 1) {
       throw createError({ statusCode: 409, statusMessage: 'The shop needs at least one owner. Make someone else owner first.' })
     }
-    return tx.updateTable('users')
+    const updated = await tx.updateTable('users')
       .set({ ...(body.role && { role: body.role }), ...(body.active !== undefined && { active: body.active }) })
       .where('id', '=', id).where('shop_id', '=', owner.shopId)
       .returning(['id', 'name', 'email', 'role', 'active'])
       .executeTakeFirstOrThrow()
+    // A new role, or an account switched off, ends the person's sessions: they sign in again
+    // (and an account switched on again does not bring old cookies back to life).
+    if (updated.role !== target.role || updated.active !== target.active) await endSessions(tx, id)
+    return updated
   })
 })

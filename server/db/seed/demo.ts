@@ -61,7 +61,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
   const shopId = shop.id
 
   const users = await tx.insertInto('users')
-    .values(PEOPLE.map((p) => ({ shop_id: shopId, email: p.email, name: p.name, role: p.role, password_hash: passwordHash, created_at: setUp })))
+    .values(PEOPLE.map((p) => ({ shop_id: shopId, email: p.email, name: p.name, role: p.role, password_hash: passwordHash, created_at: setUp, email_confirmed_at: setUp })))
     .returning(['id', 'email']).execute()
   const userId = idsBy(users, 'email')
   const crib = userId(CRIB_EMAIL)

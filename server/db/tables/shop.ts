@@ -34,13 +34,31 @@ export interface UsersTable {
   active: Generated<boolean>
   created_at: CreatedAt
   last_login_at: Date | null
+  email_confirmed_at: Date | null
+}
+
+/** One session: a sealed cookie names its row, and the session holds while the row does. */
+export interface UserSessionsTable {
+  id: Generated<string>
+  user_id: number
+  created_at: CreatedAt
+  expires_at: Date
+}
+
+/** A mail a shop sent to others, counted for the hourly limit. */
+export interface ShopMailsTable {
+  id: Generated<string>
+  shop_id: number
+  kind: string
+  recipients: number
+  sent_at: Generated<Date>
 }
 
 export interface AuthTokensTable {
   id: Generated<number>
   shop_id: number
   user_id: number
-  purpose: 'invite' | 'reset'
+  purpose: 'invite' | 'reset' | 'confirm'
   token_hash: string
   created_by: number | null
   created_at: CreatedAt

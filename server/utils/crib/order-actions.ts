@@ -4,7 +4,7 @@ import type { ReceiveOrderBody } from '#shared/schemas/orders'
 import type { z } from 'zod'
 import type { Db } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
-import { sendMail } from '../platform/mail'
+import { sendShopMail } from '../platform/shop-mail'
 import { fieldError } from '../platform/validation'
 import { lockOrder } from './order-lines'
 import { orderPdf } from './order-pdf'
@@ -30,8 +30,10 @@ export async function sendOrder(db: Db, user: SessionUser, id: number) {
     // The PDF the supplier gets is the one the order page downloads from now on.
     const pdf = await orderPdf({ ...view, status: 'sent', sentAt }, shop)
     try {
-      await sendMail(orderMail(view, shop, user.name, pdf))
+      await sendShopMail(user.shopId, 'order', orderMail(view, shop, user.name, pdf))
     } catch (err) {
+      // Refused by the shop's mail rules (not confirmed, over the hour's limit): say so as it is.
+      if (isError(err)) throw err
       throw createError({ statusCode: 502, statusMessage: `The mail server did not take the order: ${err instanceof Error ? err.message : err}. Nothing was sent; try again.` })
     }
   })

@@ -40,11 +40,11 @@ export async function mailBatchToSupplier(user: SessionUser, batch: RegrindBatch
   }
   const shop = await useDb().selectFrom('shops').select('name').where('id', '=', user.shopId).executeTakeFirstOrThrow()
   try {
-    await sendMail(regrindBatchMail({ to, shopName: shop.name, supplierName: batch.supplier.name, sender: user, batch }))
+    await sendShopMail(user.shopId, 'regrind', regrindBatchMail({ to, shopName: shop.name, supplierName: batch.supplier.name, sender: user, batch }))
     return { sent: true, to, problem: null }
   } catch (err) {
     console.error(`[regrind] e-mail for batch ${batch.id} to ${to} failed:`, err)
-    const reason = err instanceof Error ? err.message : String(err)
+    const reason = isError(err) ? err.statusMessage : err instanceof Error ? err.message : String(err)
     return { sent: false, to, problem: `The batch was sent, but the e-mail to ${to} failed (${reason}). Send the list another way.` }
   }
 }

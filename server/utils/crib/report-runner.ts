@@ -25,13 +25,14 @@ async function recipientsOf(tx: Tx, shopId: number, configured: string[] | null)
   return people.map((p) => p.email)
 }
 
-async function sendWithRetry(mail: OutgoingMail, delays = [500, 1500]): Promise<void> {
+async function sendWithRetry(shopId: number, mail: OutgoingMail, delays = [500, 1500]): Promise<void> {
   for (let attempt = 1; ; attempt++) {
     try {
-      await sendMail(mail)
+      await sendShopMail(shopId, 'report', mail)
       return
     } catch (err) {
-      if (attempt >= SEND_TRIES) throw err
+      // The shop's mail rules refused it (not confirmed, over the hour's limit): no use retrying now.
+      if (attempt >= SEND_TRIES || isError(err)) throw isError(err) ? new Error(err.statusMessage) : err
       await new Promise((r) => setTimeout(r, delays[attempt - 1] ?? 1000))
     }
   }
@@ -70,7 +71,7 @@ export async function runShopReport(shopId: number, opts: { now: Date, localDate
 
     try {
       if (!recipients.length) throw new Error('No recipients: add an e-mail address in the shop settings.')
-      await sendWithRetry({
+      await sendWithRetry(shopId, {
         to: recipients, ...report.mail,
         messageId: `<tooling-report-${shopId}-${opts.localDate}${opts.manual ? `-${row.id}` : ''}@kerfbook>`,
       })

@@ -41,3 +41,25 @@ export function resetMail(m: { to: string, name: string, link: string }): Outgoi
     html: layout('Reset your password', lines, { href: m.link, label: 'Choose a new password' }),
   }
 }
+
+export function confirmMail(m: { to: string, name: string, shopName: string, link: string }): OutgoingMail {
+  const lines = [
+    `Hello ${m.name},`,
+    `Please confirm that this is your address, so that ${m.shopName} can send invitations, orders and reports from Kerfbook. Open the link within 7 days.`,
+    'If you did not sign up for Kerfbook, ignore this e-mail: nothing will be sent in your name.',
+  ]
+  return {
+    to: m.to,
+    subject: 'Confirm your e-mail address for Kerfbook',
+    text: `${lines.join('\n\n')}\n\n${m.link}\n`,
+    html: layout('Confirm your e-mail address', lines, { href: m.link, label: 'Confirm my address' }),
+  }
+}
+
+/** Sends a person the link that confirms their address (when no fresh one is on its way); answers whether it went. */
+export async function sendConfirmation(event: Parameters<typeof publicBaseUrl>[0], user: { id: number, shopId: number, name: string, email: string }): Promise<boolean> {
+  const shop = await useDb().selectFrom('shops').select('name').where('id', '=', user.shopId).executeTakeFirstOrThrow()
+  return sendAccountLink(user, 'confirm', 7 * 24 * 60, (token) => confirmMail({
+    to: user.email, name: user.name, shopName: shop.name, link: `${publicBaseUrl(event)}/confirm/${token}`,
+  }))
+}

@@ -9,9 +9,7 @@ import type { Tx } from '../../db/connect'
 const TOO_LARGE = 'The CSV is too large: at most 2 MB. Split it into smaller files.'
 
 export async function readImportBody(event: H3Event) {
-  // JSON escapes quotes and line breaks, so the body may be somewhat larger than the CSV inside it.
-  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
-  if (length > IMPORT_MAX_BYTES * 1.5) throw createError({ statusCode: 413, statusMessage: TOO_LARGE })
+  // The body as sent was read under its limit already (server/middleware/2.body-limit.ts).
   const body = await readValidatedBody(event, parseWith(ImportBody))
   if (Buffer.byteLength(body.csv, 'utf8') > IMPORT_MAX_BYTES) throw createError({ statusCode: 413, statusMessage: TOO_LARGE })
   return body
@@ -22,16 +20,25 @@ export function importPreview(columns: readonly string[], rows: CsvRow[], proble
   return { dryRun: true as const, ok: problems.length === 0, columns, preview: rows, errors: sortProblems(problems) }
 }
 
-const sortProblems = (problems: RowProblem[]) => [...problems].sort((a, b) => a.row - b.row)
+// Enough to fix a file by; a file wrong everywhere answers a few kilobytes, not its own size again.
+export const MAX_PROBLEMS_ANSWERED = 100
+
+/** The problems by row, at most MAX_PROBLEMS_ANSWERED of them, the last saying how many more there are. */
+function sortProblems(problems: RowProblem[]): RowProblem[] {
+  const sorted = [...problems].sort((a, b) => a.row - b.row)
+  if (sorted.length <= MAX_PROBLEMS_ANSWERED) return sorted
+  const more = sorted.length - (MAX_PROBLEMS_ANSWERED - 1)
+  return [...sorted.slice(0, MAX_PROBLEMS_ANSWERED - 1), { row: sorted[MAX_PROBLEMS_ANSWERED - 1]!.row, field: '', message: `and ${more} more problems like these: fix these first and check again` }]
+}
 
 /** 400 with data.rows naming every bad row and column; the import writes nothing. */
 export function rejectImport(problems: RowProblem[]): never {
   const rows = sortProblems(problems)
   const first = rows.slice(0, 3).map((p) => `row ${p.row}${p.field ? `, ${p.field}` : ''}: ${p.message}`).join('; ')
-  const more = rows.length > 3 ? ` (and ${rows.length - 3} more)` : ''
+  const more = problems.length > 3 ? ` (and ${problems.length - 3} more)` : ''
   throw createError({
     statusCode: 400,
-    statusMessage: `Nothing was imported: ${rows.length === 1 ? 'one row has a problem' : `${rows.length} problems`}. ${first}${more}`
+    statusMessage: `Nothing was imported: ${problems.length === 1 ? 'one row has a problem' : `${problems.length} problems`}. ${first}${more}`
       .replace(/[^\x20-\x7E]/g, '?'),
     data: { rows },
   })

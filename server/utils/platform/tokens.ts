@@ -4,7 +4,7 @@ import { createHash, randomBytes } from 'node:crypto'
 import { sql } from 'kysely'
 import type { Queryable } from '../../db/connect'
 
-export type TokenPurpose = 'invite' | 'reset'
+export type TokenPurpose = 'invite' | 'reset' | 'confirm'
 
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex')
 

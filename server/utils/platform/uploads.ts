@@ -1,7 +1,6 @@
 // Uploaded files: checked by their content (not their name), size-limited, stored under random
 // names in the 'uploads' store, and recorded with their shop.
 import { randomBytes } from 'node:crypto'
-import type { H3Event } from 'h3'
 import type { Queryable } from '../../db/connect'
 
 const IMAGE_SIGNATURES: Array<{ type: string, ext: string, test: (b: Buffer) => boolean }> = [
@@ -15,14 +14,6 @@ const IMAGE_SIGNATURES: Array<{ type: string, ext: string, test: (b: Buffer) => 
 /** The image type read from the first bytes, or undefined when it is not a photo we accept. */
 export function sniffImage(data: Buffer): { type: string, ext: string } | undefined {
   return IMAGE_SIGNATURES.find((s) => s.test(data))
-}
-
-/** Refuses a request body over the limit before reading it. */
-export function assertBodySize(event: H3Event, maxBytes: number, what: string): void {
-  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
-  if (length > maxBytes + 64 * 1024) {
-    throw createError({ statusCode: 413, statusMessage: `The ${what} is too large: at most ${Math.round(maxBytes / 1024 / 1024)} MB.` })
-  }
 }
 
 export async function storePhoto(db: Queryable, opts: { shopId: number, userId: number, data: Buffer, filename?: string, maxBytes: number }) {

@@ -7,3 +7,8 @@ export function publicBaseUrl(event?: Parameters<typeof getRequestURL>[0]): stri
   if (event) return getRequestURL(event).origin
   throw new Error('Set NUXT_PUBLIC_BASE_URL so that e-mail and labels can link back to the app.')
 }
+
+/** Whether a request says it carries a body (a length above zero, or chunks). */
+export function requestHasBody(event: Parameters<typeof getRequestHeader>[0]): boolean {
+  return Number(getRequestHeader(event, 'content-length') ?? 0) > 0 || /chunked/i.test(getRequestHeader(event, 'transfer-encoding') ?? '')
+}

@@ -17,7 +17,7 @@ import type { CutLogsTable } from '../../db/tables/spindle'
 import { notFound, type SessionUser } from '../platform/auth'
 import { badField, isUniqueViolation } from '../platform/validation'
 import { requireCutterView } from './cutter-view'
-import { eventRow } from './spindle'
+import { eventRow, STATUS_SENTENCE } from './spindle'
 
 type CutLogInput = z.output<typeof CutLogBody>
 
@@ -41,7 +41,7 @@ async function readForLog(db: Db, shopId: number, id: number, body: CutLogInput)
     .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
     .leftJoin('materials as m', (j) => j.onRef('m.shop_id', '=', 'c.shop_id').on('m.id', '=', body.materialId).on('m.active', '=', true))
     .leftJoin('cut_logs as e', (j) => j.onRef('e.shop_id', '=', 'c.shop_id').on('e.idempotency_key', '=', body.idempotencyKey))
-    .select(['c.status', 'c.machine_id', 'c.regrind_count', 'c.life_scale', 'c.life_used', 'c.minutes_total', 't.rated_life_minutes',
+    .select(['c.code', 'c.status', 'c.machine_id', 'c.regrind_count', 'c.life_scale', 'c.life_used', 'c.minutes_total', 't.rated_life_minutes',
       'm.id as material_id', 'm.wear_factor', 'e.id as earlier_id'])
     .$if(body.machineId != null, (q) => q.select((eb) => eb.exists(
       eb.selectFrom('machines as mc').select('mc.id').whereRef('mc.shop_id', '=', 'c.shop_id').where('mc.id', '=', body.machineId!),
@@ -51,6 +51,29 @@ async function readForLog(db: Db, shopId: number, id: number, body: CutLogInput)
     .executeTakeFirst()
   if (!row) notFound('cutter')
   return row as typeof row & { machine_found?: boolean }
+}
+
+/**
+ * A cut belongs to a time the cutter was in a spindle: now, or at the cut's time (a log that
+ * waited on a phone, or one whose bit was taken out while the request was on its way), by the last
+ * change of status the cutter's events record at or before it. Anything else is a 409: a bit at
+ * the regrinder, retired or lost cuts nothing. Only a cutter not in a spindle now costs the read.
+ */
+async function assertWasLoaded(db: Db, shopId: number, id: number, cutter: { code: string, status: CutterStatus }, cutAt: Date, sentWithTime: boolean) {
+  if (cutter.status === 'in_spindle') return
+  const then = await db.selectFrom('cutter_events').select('to_status')
+    .where('shop_id', '=', shopId).where('cutter_id', '=', id).where('to_status', 'is not', null)
+    .where('created_at', '<=', cutAt)
+    .orderBy('created_at', 'desc').orderBy('id', 'desc').limit(1)
+    .executeTakeFirst()
+  if (then?.to_status === 'in_spindle') return
+  throw createError({
+    statusCode: 409,
+    statusMessage: sentWithTime
+      ? `Cutter ${cutter.code} was not loaded in a machine at the time of this cut, and it ${STATUS_SENTENCE[cutter.status]}: a cut can only be logged for a time the cutter was in a spindle.`
+      : `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]}: a cut can only be logged on a cutter loaded in a machine. Load it first.`,
+    data: { status: cutter.status },
+  })
 }
 
 /** What came of one try: the log (new or sent before), or `stale` when the cutter changed meanwhile. */
@@ -73,10 +96,13 @@ async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInpu
   }
   if (cutter.material_id == null || cutter.wear_factor == null) badField('materialId', 'no such material in your shop')
   if (body.machineId != null && !cutter.machine_found) badField('machineId', 'no such machine in your shop')
+  await assertWasLoaded(db, user.shopId, id, cutter, cutAt, body.cutAt !== undefined)
   const machineId = body.machineId ?? cutter.machine_id
 
   const added = Math.min(MAX_LIVES, roundLife(lifeAdded(body.minutes, cutter.wear_factor, cutter.rated_life_minutes, cutter.life_scale)))
-  const broken = body.outcome === 'broken' && cutter.status !== 'retired'
+  // A break retires a cutter in a machine or back in the crib; one logged late for a bit since
+  // sent for resharpening or marked lost leaves its status to the batch or the search.
+  const broken = body.outcome === 'broken' && (cutter.status === 'in_spindle' || cutter.status === 'in_crib')
   const event = { shopId: user.shopId, cutterId: id, machineId, actorId: user.id }
   const events = [eventRow({ ...event, kind: 'cut_logged', from: cutter.status, to: cutter.status, note: `${body.minutes} min, ${body.outcome}` })]
   if (broken) {

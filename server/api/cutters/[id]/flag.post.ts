@@ -9,7 +9,6 @@ export default defineEventHandler(async (event) => {
   let fields: unknown
   let photo: { data: Buffer, filename?: string } | undefined
   if ((getRequestHeader(event, 'content-type') ?? '').startsWith('multipart/form-data')) {
-    assertBodySize(event, PHOTO_MAX_BYTES, 'photo')
     const parts = (await readMultipartFormData(event)) ?? []
     fields = Object.fromEntries(parts.filter((p) => !p.filename && p.name && p.name !== 'photo').map((p) => [p.name, p.data.toString('utf8')]))
     const file = parts.find((p) => p.name === 'photo')
