@@ -11,12 +11,19 @@ const MAX_ID = 2_147_483_647
 
 export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })
 
+/** The phone's key for one action, the same on every attempt, so that the server does it once. */
+const IdempotencyKey = z.string().min(8, { error: 'must be 8 to 100 characters' }).max(100, { error: 'must be 8 to 100 characters' })
+
 export const LoadBody = z.object({
   machineId: z.number({ error: 'choose a machine' }).int().positive().max(MAX_ID),
+  idempotencyKey: IdempotencyKey.optional(),
 })
 
+/** Returning needs nothing but, from the phone's queue, its key. */
+export const ReturnBody = z.object({ idempotencyKey: IdempotencyKey.optional() }).optional()
+
 export const CutLogBody = z.object({
-  idempotencyKey: z.string().min(8, { error: 'must be 8 to 100 characters' }).max(100, { error: 'must be 8 to 100 characters' }),
+  idempotencyKey: IdempotencyKey,
   materialId: z.number({ error: 'choose a material' }).int().positive().max(MAX_ID),
   minutes: z.number({ error: 'enter the minutes cut' })
     // Stored to 0.01 minute: anything shorter would round to 0 in the database.

@@ -156,6 +156,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/labels': { role: 'operator', query: ({ ra }) => `ids=${ra.cutters.crib.id}` },
   'GET /api/machines': { role: 'operator' },
   'GET /api/materials': { role: 'operator' },
+  'GET /api/offline/copy': { role: 'operator' },
   'GET /api/me': { role: 'operator' },
   'PATCH /api/me': { role: 'operator' },
   'GET /api/orders': { role: 'crib_manager' },

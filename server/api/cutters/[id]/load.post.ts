@@ -6,7 +6,7 @@ import { CutterIdParams, LoadBody } from '#shared/schemas/spindle'
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
-  const { machineId } = await readValidatedBody(event, parseWith(LoadBody))
+  const { machineId, idempotencyKey } = await readValidatedBody(event, parseWith(LoadBody))
 
   await transaction(async (tx) => {
     const machine = await tx.selectFrom('machines').select(['id', 'name', 'tool_changer'])
@@ -16,6 +16,8 @@ export default defineEventHandler(async (event) => {
       throw createError({ statusCode: 400, statusMessage: 'machineId: no such machine in your shop', data: { fields: { machineId: 'no such machine in your shop' } } })
     }
     const cutter = await lockCutter(tx, user.shopId, id)
+    // A load from the phone's queue sent again after a lost answer: done already, whatever happened since.
+    if (await alreadyDone(tx, user.shopId, idempotencyKey)) return
     if (cutter.status === 'in_spindle') {
       if (cutter.machine_id === machineId) return // already there: loading twice is harmless
       const where = await tx.selectFrom('machines').select('name').where('id', '=', cutter.machine_id!).executeTakeFirst()
@@ -43,7 +45,7 @@ export default defineEventHandler(async (event) => {
     }
     await tx.updateTable('cutters').set({ status: 'in_spindle', machine_id: machineId, updated_at: new Date() })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id })
+    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id, idempotencyKey })
   })
   return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
 })
