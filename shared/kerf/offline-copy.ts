@@ -62,6 +62,8 @@ export function cutterFromCopy(copy: OfflineCopy, code: string) {
     retiredReason: null,
     receivedAt: null,
     lifeThreshold: copy.shop.lifeThreshold,
+    // The copy holds no cut logs: without a connection only the shift bounds a cut.
+    usual: { shiftMinutes: copy.shop.shiftMinutes, longestCutMinutes: null },
     due: reason && { reason, action: dueAction(forDue, type) },
     type: {
       id: type.id, name: type.name, ratedLifeMinutes: type.ratedLifeMinutes, flutes: type.flutes, cuttingDiameterMm: type.cuttingDiameterMm,

@@ -14,5 +14,7 @@ export const ShopUpdateBody = z.object({
   lifeThreshold: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(1.5, { error: 'at most 150 %' }).optional(),
   regrindLifeFraction: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(1, { error: 'at most 100 %' }).optional(),
   orderCostCents: z.number().int().min(0).max(10_000_000).optional(),
+  // The cut form asks before logging more minutes than one shift holds.
+  shiftMinutes: z.number().int({ error: 'must be whole minutes' }).min(60, { error: 'must be at least 60 minutes' }).max(1440, { error: 'at most 1440 minutes (a day)' }).optional(),
   holdingRate: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(5, { error: 'at most 500 %' }).optional(),
 })

@@ -116,6 +116,7 @@ const FUZZ: Record<string, FuzzEntry> = {
       regrindLifeFraction: num(0.001, 1, { optional: true }),
       orderCostCents: int(0, 10_000_000, { optional: true }),
       holdingRate: num(0.001, 5, { optional: true }),
+      shiftMinutes: int(60, 1440, { optional: true }),
     },
     valid: () => ({ name: 'Fuzz shop renamed' }),
   },
