@@ -5,7 +5,7 @@
 // JSON) costs more CPU to compress than it saves on the wire.
 import { promisify } from 'node:util'
 import { brotliCompress, constants, gzip } from 'node:zlib'
-import { chooseEncoding, COMPRESS_FROM_BYTES, isCompressibleType } from '../utils/compression'
+import { chooseEncoding, COMPRESS_FROM_BYTES, isCompressibleType } from '../utils/platform/compression'
 
 const brotli = promisify(brotliCompress)
 const gzipAsync = promisify(gzip)

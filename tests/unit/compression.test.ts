@@ -1,7 +1,7 @@
 // Which encoding the server answers with, read from Accept-Encoding as RFC 9110 (section 12.5.3)
 // defines it: q-values weigh the codings, q=0 refuses one, "*" stands for any not named.
 import { describe, expect, it } from 'vitest'
-import { chooseEncoding, isCompressibleType } from '../../server/utils/compression'
+import { chooseEncoding, isCompressibleType } from '../../server/utils/platform/compression'
 
 describe('the response encoding', () => {
   it('prefers brotli, then gzip, as browsers offer them', () => {

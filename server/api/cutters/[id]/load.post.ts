@@ -1,51 +1,9 @@
-// Load a cutter into a machine. The row lock makes two operators loading the same bit at once
-// end with one 200 and one 409 that names the machine. On a machine without a tool changer the
-// bit that was in the spindle goes back to the crib.
+// Load a cutter into a machine (server/utils/spindle/load.ts); answers the cutter as the pages show it.
 import { CutterIdParams, LoadBody } from '#shared/schemas/spindle'
 
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
   const { machineId, idempotencyKey } = await readValidatedBody(event, parseWith(LoadBody))
-
-  await transaction(async (tx) => {
-    const machine = await tx.selectFrom('machines').select(['id', 'name', 'tool_changer'])
-      .where('shop_id', '=', user.shopId).where('id', '=', machineId).where('active', '=', true)
-      .executeTakeFirst()
-    if (!machine) {
-      throw createError({ statusCode: 400, statusMessage: 'machineId: no such machine in your shop', data: { fields: { machineId: 'no such machine in your shop' } } })
-    }
-    const cutter = await lockCutter(tx, user.shopId, id)
-    // A load from the phone's queue sent again after a lost answer: done already, whatever happened since.
-    if (await alreadyDone(tx, user.shopId, idempotencyKey)) return
-    if (cutter.status === 'in_spindle') {
-      if (cutter.machine_id === machineId) return // already there: loading twice is harmless
-      const where = await tx.selectFrom('machines').select('name').where('id', '=', cutter.machine_id!).executeTakeFirst()
-      throw createError({
-        statusCode: 409,
-        statusMessage: `Cutter ${cutter.code} is already loaded in ${where?.name ?? 'another machine'}. Return it to the crib first.`,
-        data: { machineId: cutter.machine_id, machineName: where?.name },
-      })
-    }
-    if (cutter.status !== 'in_crib') {
-      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]} and cannot be loaded.` })
-    }
-    if (!machine.tool_changer) {
-      const previous = await tx.selectFrom('cutters').select(['id', 'code'])
-        .where('shop_id', '=', user.shopId).where('machine_id', '=', machineId).where('status', '=', 'in_spindle')
-        .forUpdate().execute()
-      for (const p of previous) {
-        await tx.updateTable('cutters').set({ status: 'in_crib', machine_id: null, updated_at: new Date() })
-          .where('shop_id', '=', user.shopId).where('id', '=', p.id).execute()
-        await recordEvent(tx, {
-          shopId: user.shopId, cutterId: p.id, kind: 'returned', from: 'in_spindle', to: 'in_crib', machineId,
-          actorId: user.id, note: `Taken out when ${cutter.code} was loaded`,
-        })
-      }
-    }
-    await tx.updateTable('cutters').set({ status: 'in_spindle', machine_id: machineId, updated_at: new Date() })
-      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id, idempotencyKey })
-  })
-  return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
+  return { cutter: await loadCutter(useDb(), user, id, machineId, { idempotencyKey }) }
 })
