@@ -15,5 +15,5 @@ export function useSuppliers() {
 /** The active types to order or receive, by name: what the order pages offer. */
 export function useOrderableTypes() {
   const { data } = useCutterTypes(ref(false))
-  return computed(() => data.value.map((t) => ({ typeId: t.id, typeName: t.name, supplierId: t.supplierId })))
+  return computed(() => data.value.map((t) => ({ typeId: t.id, typeName: t.name, supplierId: t.supplierId, unitCostCents: t.unitCostCents })))
 }

@@ -39,6 +39,10 @@ export function useCutterTypeForm(initial: CutterTypeJson | undefined) {
     packSize: String(initial?.packSize ?? 1),
     serviceLevel: String(roundTo((initial?.serviceLevel ?? 0.95) * 100, 2)),
     leadTimeDaysOverride: initial?.leadTimeDaysOverride === null || initial?.leadTimeDaysOverride === undefined ? '' : String(initial.leadTimeDaysOverride),
+    minOnHand: initial?.minOnHand == null ? '' : String(initial.minOnHand),
+    maxOnHand: initial?.maxOnHand == null ? '' : String(initial.maxOnHand),
+    sparesPerMachine: initial?.sparesPerMachine == null ? '' : String(initial.sparesPerMachine),
+    doNotReorder: initial?.doNotReorder ?? false,
   })
 
   function lengthMm(f: LengthField, inUnit: LengthUnit = unit.value): number | string | undefined {
@@ -73,6 +77,10 @@ export function useCutterTypeForm(initial: CutterTypeJson | undefined) {
       packSize: num(form.packSize),
       serviceLevel: blank(form.serviceLevel) ? undefined : parseServiceLevel(form.serviceLevel) ?? form.serviceLevel,
       leadTimeDaysOverride: blank(form.leadTimeDaysOverride) ? null : num(form.leadTimeDaysOverride),
+      minOnHand: blank(form.minOnHand) ? null : num(form.minOnHand),
+      maxOnHand: blank(form.maxOnHand) ? null : num(form.maxOnHand),
+      sparesPerMachine: blank(form.sparesPerMachine) ? null : num(form.sparesPerMachine),
+      doNotReorder: form.doNotReorder,
     }
   }
 

@@ -2,13 +2,15 @@
 // the bottom tab bar; the rest are reached from the Account page on a phone.
 import { roleAtLeast, type Role } from '#shared/kerf/roles'
 
-export type NavIconName = 'home' | 'scan' | 'feeds' | 'crib' | 'report' | 'people' | 'settings' | 'account' | 'insights'
+export type NavIconName = 'home' | 'scan' | 'feeds' | 'crib' | 'report' | 'people' | 'settings' | 'account' | 'insights' | 'programs'
 export interface NavItem { to: string, label: string, icon: NavIconName, role: Role, phone: boolean }
 
 const ITEMS: NavItem[] = [
   { to: '/', label: 'Home', icon: 'home', role: 'operator', phone: true },
   { to: '/scan', label: 'Scan', icon: 'scan', role: 'operator', phone: true },
   { to: '/feeds', label: 'Feeds', icon: 'feeds', role: 'operator', phone: false },
+  { to: '/bit-choice', label: 'Which bit?', icon: 'feeds', role: 'operator', phone: false },
+  { to: '/programs', label: 'Programs', icon: 'programs', role: 'operator', phone: false },
   { to: '/crib', label: 'Crib', icon: 'crib', role: 'crib_manager', phone: true },
   { to: '/reports', label: 'Reports', icon: 'report', role: 'crib_manager', phone: false },
   { to: '/insights', label: 'Insights', icon: 'insights', role: 'owner', phone: false },

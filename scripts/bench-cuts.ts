@@ -73,7 +73,7 @@ async function makeShop(db: Db): Promise<Fixture> {
   const me = await res.json() as { id: number, shop: { id: number } }
   const shopId = me.shop.id
   const machines = await db.insertInto('machines').values(Array.from({ length: MACHINES }, (_, i) => ({
-    shop_id: shopId, name: `Router ${i + 1}`, min_rpm: 6000, max_rpm: 24000, tool_changer: true,
+    shop_id: shopId, name: `Router ${i + 1}`, min_rpm: 6000, max_rpm: 24000, pockets: 8,
   }))).returning('id').execute()
   const type = await db.insertInto('cutter_types').values({
     shop_id: shopId, name: 'Bench two-flute 1/4"', profile: 'square_end', helix: 'upcut', flutes: 2, cutting_diameter_mm: 6.35,

@@ -16,6 +16,8 @@ export interface CaughtMail {
   subject: string
   text: string
   html: string
+  /** Attached files, their bytes in base64. */
+  attachments: Array<{ filename: string, contentType: string, contentBase64: string }>
 }
 
 export interface MailCatcher {
@@ -61,6 +63,7 @@ export async function startMailCatcher(opts: { smtpPort: number, httpPort: numbe
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : '',
+            attachments: parsed.attachments.map((a) => ({ filename: a.filename ?? '', contentType: a.contentType, contentBase64: a.content.toString('base64') })),
           }
           messages.push(mail)
           if (opts.dir) await writeFile(path.join(opts.dir, `${String(mail.id).padStart(5, '0')}.eml`), raw)

@@ -39,15 +39,25 @@ async function main() {
         flutes: 1 + (i % 2), cutting_diameter_mm: 6.35, shank_diameter_mm: 6.35, cutting_length_mm: 22, overall_length_mm: 64,
         rated_life_minutes: rated, min_usable_diameter_mm: 6, unit_cost_cents: 2500 + 500 * i, regrind_cost_cents: 900,
       }))).execute()
-      // Cutters with every life finished: two regrinds, then retired worn out.
+      // Cutters on their third life after two regrinds, the first two ended by wear. The third
+      // ended by wear for half of them (retired worn out or undersize); the rest are censored
+      // there: still cutting (back in the crib), broken or lost.
       await sql`
-        insert into cutters (shop_id, type_id, code, status, diameter_mm, regrind_count, life_scale, retired_reason, received_at)
+        insert into cutters (shop_id, type_id, code, status, diameter_mm, regrind_count, life_scale, retired_reason, flagged, received_at)
         select ${shop.id}, t.ids[1 + g % array_length(t.ids, 1)],
           -- Label codes from the shop's id and the cutter's number in hex, spelled with label letters.
           'V' || translate(lpad(upper(to_hex(${shop.id}::int)), 3, '0') || lpad(upper(to_hex(g)), 5, '0'), '0123456789ABCDEF', 'ABCDEFGHJKMNPQRS'),
-          'retired', 6.0, 2, 0.8, 'worn', now() - interval '365 days' * random()
+          (array['retired', 'retired', 'retired', 'in_crib', 'in_crib', 'retired', 'lost', 'retired', 'retired', 'in_crib'])[1 + (g / 7) % 10]::text,
+          6.0, 2, 0.8,
+          (array['worn', 'worn', 'undersize', null, null, 'broken', null, 'worn', 'worn', null])[1 + (g / 7) % 10]::text,
+          (array[null, null, null, null, null, 'broken', null, null, null, null])[1 + (g / 7) % 10]::text,
+          now() - interval '365 days' * random()
         from generate_series(0, ${CUTTERS - 1}) g,
           (select array_agg(id order by id) as ids from cutter_types where shop_id = ${shop.id}) t`.execute(tx)
+      // Statistics for the rows just written, before the insert below joins a million generated
+      // rows against them: without them the planner takes the new cutters for an empty table and
+      // joins in a nested loop (minutes at 100 % of a core instead of seconds).
+      await sql`analyze cutters, cutter_types, materials`.execute(tx)
       console.log(`[seed:volume] shop ${shop.id}: ${CUTTERS} cutters; writing ${COUNT} cut logs`)
 
       // Replica mode skips the roll-up trigger and the per-row foreign-key checks (three a log,
@@ -84,6 +94,7 @@ async function main() {
       await sql`analyze cut_logs`.execute(tx)
       await sql`set local work_mem = '256MB'`.execute(tx)
       await sql`select rebuild_cut_log_roll_ups(${shop.id})`.execute(tx)
+      await sql`select rebuild_cut_cleanup_roll_up(${shop.id})`.execute(tx)
       return shop.id
     })
     await sql`analyze cut_logs; analyze cut_log_daily; analyze cut_sharp_lives; analyze cutters`.execute(db)

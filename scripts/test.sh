@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
-# `npm test`: installs what is needed (Chromium for the browser journeys in tests/e2e too), starts a PostgreSQL
-# of its own (port 55433, separate data folder), type-checks, lints, builds, and runs every test.
+# `npm test`: installs what is needed (Chromium for the browser journeys in tests/e2e, LinuxCNC's
+# rs274 as the NC program reader's oracle), starts a PostgreSQL of its own (port 55433, separate
+# data folder), type-checks, lints, builds, and runs every test.
 # Ends with the test runner's summary.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -11,6 +12,12 @@ bash scripts/install.sh
 if [ ! -x /usr/bin/chromium ]; then
   echo "[test] /usr/bin/chromium not found: installing Debian's chromium package"
   bash scripts/apt-install.sh chromium
+fi
+
+# The NC program reader is checked against LinuxCNC's standalone interpreter, rs274.
+if ! command -v rs274 >/dev/null 2>&1; then
+  echo "[test] rs274 not found: installing Debian's linuxcnc-uspace package"
+  bash scripts/apt-install.sh linuxcnc-uspace
 fi
 
 export KERFBOOK_PG_PORT=${KERFBOOK_TEST_PG_PORT:-55433}

@@ -15,6 +15,7 @@ export default defineEventHandler(async (event) => {
     ...(b.regrindLifeFraction !== undefined && { regrind_life_fraction: b.regrindLifeFraction }),
     ...(b.orderCostCents !== undefined && { order_cost_cents: b.orderCostCents }),
     ...(b.holdingRate !== undefined && { holding_rate: b.holdingRate }),
+    ...(b.labourRateCentsPerHour !== undefined && { labour_rate_cents_per_hour: b.labourRateCentsPerHour }),
   }
   if (Object.keys(set).length) await useDb().updateTable('shops').set(set).where('id', '=', owner.shopId).execute()
   return shopSettings(useDb(), owner.shopId)

@@ -7,12 +7,14 @@ import type {
   CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
   SuppliersTable, ToolingReportsTable,
 } from './tables/crib'
-import type { CutLogDailyTable, CutSharpLivesTable, WearFactorAdoptionsTable } from './tables/insights'
+import type { CutCleanupDailyTable, CutLogDailyTable, CutSharpLivesTable, WearFactorAdoptionsTable } from './tables/insights'
+import type { MachineToolPocketsTable, NcProgramsTable, NcRunLogsTable, NcRunsTable } from './tables/programs'
 
 export type * from './tables/shop'
 export type * from './tables/spindle'
 export type * from './tables/crib'
 export type * from './tables/insights'
+export type * from './tables/programs'
 
 export interface Database {
   shops: ShopsTable
@@ -35,5 +37,10 @@ export interface Database {
   tooling_reports: ToolingReportsTable
   cut_log_daily: CutLogDailyTable
   cut_sharp_lives: CutSharpLivesTable
+  cut_cleanup_daily: CutCleanupDailyTable
   wear_factor_adoptions: WearFactorAdoptionsTable
+  machine_tool_pockets: MachineToolPocketsTable
+  nc_programs: NcProgramsTable
+  nc_runs: NcRunsTable
+  nc_run_logs: NcRunLogsTable
 }

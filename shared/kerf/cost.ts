@@ -77,3 +77,10 @@ export function costRows(slices: readonly UsageSlice[], costPerLifeByType: Reado
 export function rate(count: number, logs: number): number | null {
   return logs > 0 ? count / logs : null
 }
+
+/** What hand-finishing costs a part: cleanup minutes × the shop's labour rate per hour, in whole
+ *  cents; null when either is unknown. */
+export function cleanupCentsPerPart(minutesPerPart: number | null, labourRateCentsPerHour: number | null): number | null {
+  if (minutesPerPart === null || labourRateCentsPerHour === null) return null
+  return Math.round((minutesPerPart * labourRateCentsPerHour) / 60)
+}

@@ -22,7 +22,8 @@ export interface OfflineType {
   regrindDiameterLossMm: number, minUsableDiameterMm: number
 }
 export interface OfflineMaterial { id: number, name: string, family: MaterialFamily, wearFactor: number, common: boolean }
-export interface OfflineMachine { id: number, name: string, description: string, minRpm: number, maxRpm: number, toolChanger: boolean }
+/** A machine as GET /api/machines answers it (pockets 0: a manual collet), with the cutters in it. */
+export interface OfflineMachine { id: number, name: string, pockets: number, loaded: Array<{ id: number, code: string, pocket: number | null }> }
 
 export interface OfflineCopy {
   /** When the server made it (ISO): the page says how old what it shows is. */

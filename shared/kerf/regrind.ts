@@ -66,3 +66,28 @@ export const BATCH_STATUS_LABELS: Record<BatchStatus, string> = {
   received: 'Received back',
   cancelled: 'Cancelled',
 }
+
+/** The turnaround a supplier gets when none is set: about ten days there and back. */
+export const DEFAULT_REGRIND_TURNAROUND_DAYS = 10
+const DAY_MS = 86_400_000
+
+export interface BatchAge {
+  /** Whole days since the batch was sent. */
+  ageDays: number
+  expectedBackAt: Date
+  overdue: boolean
+  /** Whole days past the expected return (0 when not overdue). */
+  daysOverdue: number
+}
+
+/** A sent batch's age against its supplier's turnaround: overdue once the expected day has passed. */
+export function batchAge(sentAt: Date, turnaroundDays: number, now: Date): BatchAge {
+  const expectedBackAt = new Date(sentAt.getTime() + turnaroundDays * DAY_MS)
+  const late = now.getTime() - expectedBackAt.getTime()
+  return {
+    ageDays: Math.max(0, Math.floor((now.getTime() - sentAt.getTime()) / DAY_MS)),
+    expectedBackAt,
+    overdue: late > 0,
+    daysOverdue: late > 0 ? Math.floor(late / DAY_MS) : 0,
+  }
+}

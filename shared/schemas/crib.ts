@@ -51,6 +51,12 @@ export const CutterTypeFields = z.object({
   serviceLevel: z.number({ error: 'enter a percentage like 95' })
     .min(0.5, { error: 'must be 50 % to 99.99 %' }).max(0.9999, { error: 'must be 50 % to 99.99 %' }).optional(),
   leadTimeDaysOverride: Whole('a number of days', 0, 365).nullish(),
+  // The shop's own word: keep at least / at most this many, and sharp spares per machine.
+  minOnHand: Whole('a number of cutters', 0, 10_000).nullish(),
+  maxOnHand: Whole('a number of cutters', 0, 10_000).nullish(),
+  sparesPerMachine: z.number({ error: 'enter a number of spares' }).int({ error: 'must be a whole number' })
+    .min(0, { error: 'cannot be negative' }).max(100, { error: 'must be at most 100' }).nullish(),
+  doNotReorder: z.boolean({ error: 'must be true or false' }).optional(),
 })
 export type CutterTypeInput = z.input<typeof CutterTypeFields>
 export type CutterTypeValue = z.output<typeof CutterTypeFields>
@@ -62,11 +68,14 @@ export interface GeometryForChecks {
   minUsableDiameterMm: number
   cuttingLengthMm: number
   overallLengthMm: number
+  minOnHand?: number | null
+  maxOnHand?: number | null
 }
 
 /** The rules between fields (the database has matching CHECKs): each broken one, by field. */
 export function geometryProblems(t: GeometryForChecks): Record<string, string> {
   const problems: Record<string, string> = {}
+  if (t.minOnHand != null && t.maxOnHand != null && t.minOnHand > t.maxOnHand) problems.maxOnHand = 'must be at least the minimum on hand'
   if (t.overallLengthMm < t.cuttingLengthMm) problems.overallLengthMm = 'must be at least the cutting length'
   if (t.minUsableDiameterMm > t.cuttingDiameterMm) problems.minUsableDiameterMm = 'must be at most the cutting diameter'
   const hasAngle = t.vAngleDeg !== null && t.vAngleDeg !== undefined
@@ -91,6 +100,7 @@ export const SupplierFields = z.object({
   email: z.preprocess(blankToNull, Email.nullish()),
   phone: z.preprocess(blankToNull, z.string().trim().max(40, { error: 'use at most 40 characters' }).nullish()),
   leadTimeDays: Whole('the lead time in days', 0, 365).optional(),
+  regrindTurnaroundDays: Whole('the regrind turnaround in days', 1, 365).optional(),
   note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
 })
 export const SupplierBody = SupplierFields

@@ -22,4 +22,6 @@ export const AdoptWearBody = z.object({
   materialIds: z.array(z.number({ error: 'must be a material id' }).int().positive().max(2_147_483_647), { error: 'choose the materials to adopt' })
     .min(1, { error: 'choose at least one material' })
     .max(500, { error: 'choose at most 500 materials' }),
+  /** Adopt figures whose 90 % interval is wide as well (the page asks the person first). */
+  confirmWide: z.boolean({ error: 'must be true or false' }).optional(),
 }).refine(ordered, orderMessage)

@@ -10,10 +10,12 @@ const Diameter = z.number({ error: 'enter a diameter in mm' }).min(0.001, { erro
 
 export const OrderIdParams = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
+// A router bit costs tens of dollars; a unit price above $100,000 is a typing slip.
 export const OrderLineInput = z.object({
   typeId: Id,
   quantity: Quantity,
-  unitCostCents: z.number().int().min(0).max(100_000_000).optional(),
+  unitCostCents: z.number({ error: 'enter a price like 42.50' }).int({ error: 'must be whole cents' })
+    .min(0, { error: 'cannot be negative' }).max(10_000_000, { error: 'must be at most 100000.00' }).optional(),
 })
 
 export const NewOrderBody = z.object({

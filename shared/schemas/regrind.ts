@@ -30,18 +30,29 @@ export const SendBatchBody = z.object({
   emailSupplier: z.boolean().optional(),
 })
 
+// Each bit that came back with its measured diameter, or one the regrinder scrapped with the
+// reason it gave; the bits not listed stay out.
 export const ReceiveItem = z.object({
   cutterId: id('cutter'),
   diameterMm: z.number({ error: 'enter the measured diameter' })
     .min(0.001, { error: 'must be at least 0.001 mm' })
-    .max(1000, { error: 'must be at most 1000 mm' }),
+    .max(1000, { error: 'must be at most 1000 mm' }).optional(),
+  scrapReason: z.string({ error: 'say why the regrinder scrapped it' }).trim()
+    .min(1, { error: 'say why the regrinder scrapped it' }).max(500, { error: 'use at most 500 characters' }).optional(),
   costCents: z.number({ error: 'enter the cost' }).int({ error: 'must be whole cents' })
     .min(0, { error: 'cannot be negative' }).max(10_000_000, { error: 'must be at most 100,000.00' }).optional(),
+}).superRefine((item, ctx) => {
+  if (item.diameterMm === undefined && item.scrapReason === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['diameterMm'], message: 'enter the measured diameter, or the reason it was scrapped' })
+  }
+  if (item.diameterMm !== undefined && item.scrapReason !== undefined) {
+    ctx.addIssue({ code: 'custom', path: ['scrapReason'], message: 'a bit that came back with a diameter was not scrapped: give one or the other' })
+  }
 })
 
 export const ReceiveBatchBody = z.object({
-  items: z.array(ReceiveItem, { error: 'list each cutter with its measured diameter' })
-    .min(1, { error: 'list each cutter with its measured diameter' })
+  items: z.array(ReceiveItem, { error: 'list the cutters that came back, each with its measured diameter' })
+    .min(1, { error: 'list at least one cutter that came back or was scrapped' })
     .max(500, { error: 'use at most 500 cutters in one batch' }),
 })
 export type ReceiveBatchInput = z.input<typeof ReceiveBatchBody>

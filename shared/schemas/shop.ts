@@ -16,5 +16,8 @@ export const ShopUpdateBody = z.object({
   orderCostCents: z.number().int().min(0).max(10_000_000).optional(),
   // The cut form asks before logging more minutes than one shift holds.
   shiftMinutes: z.number().int({ error: 'must be whole minutes' }).min(60, { error: 'must be at least 60 minutes' }).max(1440, { error: 'at most 1440 minutes (a day)' }).optional(),
+  // Cents per hour of hand-finishing, for the cost of cleanup minutes; null: not set.
+  labourRateCentsPerHour: z.number({ error: 'enter the labour rate' }).int({ error: 'must be whole cents' })
+    .min(0, { error: 'must be 0 or more' }).max(1_000_000, { error: 'must be at most 10,000.00 an hour' }).nullable().optional(),
   holdingRate: z.number().min(0.001, { error: 'must be at least 0.1 %' }).max(5, { error: 'at most 500 %' }).optional(),
 })

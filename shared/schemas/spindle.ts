@@ -17,6 +17,10 @@ const IdempotencyKey = z.string().min(8, { error: 'must be 8 to 100 characters' 
 export const LoadBody = z.object({
   machineId: z.number({ error: 'choose a machine' }).int().positive().max(MAX_ID),
   idempotencyKey: IdempotencyKey.optional(),
+  /** The bit seen in a one-bit machine, to go back to the crib in the same step ("return that one and load this"). */
+  returnCutterId: z.number({ error: 'must be a cutter id' }).int().positive().max(MAX_ID).optional(),
+  /** The tool-changer pocket, for a machine with pockets (the lowest free one when not given). */
+  pocket: z.number({ error: 'must be a pocket number' }).int({ error: 'must be a whole number' }).min(1, { error: 'must be 1 to 99' }).max(99, { error: 'must be 1 to 99' }).optional(),
 })
 
 /** Returning needs nothing but, from the phone's queue, its key. */
@@ -32,6 +36,9 @@ export const CutLogBody = z.object({
   outcome: z.enum(CUT_OUTCOMES, { error: 'choose clean, melted, chip out, fuzzy or broken' }),
   rpm: z.number().int({ error: 'must be a whole number' }).positive({ error: 'must be more than 0' }).max(100_000).nullish(),
   feedMmPerMin: z.number().min(0.01, { error: 'must be at least 0.01 mm/min' }).max(1_000_000).nullish(),
+  // Hand-finishing a part needed because of the edge (fuzz, melt, chip-out), in minutes.
+  cleanupMinutesPerPart: z.number({ error: 'enter the cleanup minutes per part' })
+    .min(0, { error: 'must be 0 or more' }).max(600, { error: 'must be at most 600 minutes' }).nullish(),
   note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
   machineId: z.number().int().positive().max(MAX_ID).nullish(),
   // When the cut finished; a log sent late from the phone's queue keeps its real time.

@@ -5,6 +5,12 @@ declare module 'jstat' {
       normal: {
         /** Quantile (inverse CDF) of the normal distribution. */
         inv(p: number, mean: number, std: number): number
+        /** Cumulative distribution function of the normal distribution. */
+        cdf(x: number, mean: number, std: number): number
+      }
+      poisson: {
+        /** P(X ≤ k) for a Poisson distribution with mean λ (used by tests as an outside check). */
+        cdf(k: number, lambda: number): number
       }
     }
   }

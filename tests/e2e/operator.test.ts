@@ -39,6 +39,10 @@ describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
     await page.getByRole('heading', { name: `Load ${cutter.code} into…` }).waitFor()
     await check('load-picker')
     await page.getByRole('button', { name: 'Big table with changer' }).click()
+    // A tool changer: the phone asks for the pocket, free ones as big targets.
+    await page.getByText('Which pocket of Big table with changer?').waitFor()
+    await check('pocket-picker')
+    await page.getByRole('button', { name: 'Pocket 3 free' }).click()
     const status = page.getByRole('status').filter({ hasText: 'Loaded into Big table with changer.' })
     await status.waitFor()
     await page.getByText('In Big table with changer', { exact: true }).waitFor()
@@ -90,6 +94,7 @@ describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
       await open(page, `/c/${cutter.code}`)
       await page.getByRole('button', { name: 'Load into a machine' }).click()
       await page.getByRole('button', { name: 'Big table with changer' }).click()
+      await page.getByRole('button', { name: 'Pocket 1 free' }).click()
       await page.getByText('In Big table with changer', { exact: true }).waitFor()
 
       await phone.setOffline(true)

@@ -88,7 +88,11 @@ describe('the owner at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
     const mdf = cost.getByRole('row').filter({ hasText: 'MDF' })
     await mdf.waitFor()
     await expect(mdf.getByRole('cell').allInnerTexts()).resolves.toEqual(['MDF', '10.0', '$11.54', '$1.15'])
-    await page.getByRole('region', { name: 'Wear by material' }).waitFor()
+    // The wear ranking: MDF with its dot and bar, and what an hour of it costs beside it.
+    const wear = page.getByRole('region', { name: 'Which material wears tools fastest' })
+    const ranked = wear.getByRole('listitem').filter({ hasText: 'MDF' })
+    await ranked.getByText('$1.15').waitFor()
+    await expect(ranked.getByRole('img').getAttribute('aria-label')).resolves.toMatch(/^MDF: learned 1\.00/)
     await check('insights')
 
     await atPhoneWidth(journey, [

@@ -48,7 +48,7 @@ interface SpecialRoute { special: string }
 type FuzzEntry = BodyRoute | PathOnlyRoute | SpecialRoute
 
 const note = str(2000, { optional: true })
-const orderLine = object({ typeId: id(), quantity: int(1, 10_000), unitCostCents: int(0, 100_000_000, { optional: true }) }, { typeId: 1, quantity: 1 })
+const orderLine = object({ typeId: id(), quantity: int(1, 10_000), unitCostCents: int(0, 10_000_000, { optional: true }) }, { typeId: 1, quantity: 1 })
 const cutterTypeFields: Fields = {
   name: str(120, { min: 1 }),
   supplierId: id({ optional: true, nullable: true }),
@@ -71,13 +71,28 @@ const cutterTypeFields: Fields = {
   packSize: int(1, 10_000, { optional: true }),
   serviceLevel: num(0.5, 0.9999, { optional: true }),
   leadTimeDaysOverride: int(0, 365, { optional: true, nullable: true }),
+  minOnHand: int(0, 10_000, { optional: true, nullable: true }),
+  maxOnHand: int(0, 10_000, { optional: true, nullable: true }),
+  sparesPerMachine: int(0, 100, { optional: true, nullable: true }),
+  doNotReorder: bool({ optional: true }),
 }
 const partial = (fields: Fields): Fields => Object.fromEntries(Object.entries(fields).map(([k, f]) => [k, { ...f, optional: true }]))
+const machineFields: Fields = {
+  name: str(80, { min: 1 }),
+  description: str(500, { optional: true }),
+  minRpm: int(1000, 100_000),
+  maxRpm: int(1000, 100_000),
+  pockets: int(0, 99),
+  spindlePowerKw: num(0.01, 1000, { optional: true, nullable: true }),
+  bedXMm: num(0.1, 100_000, { optional: true, nullable: true }),
+  bedYMm: num(0.1, 100_000, { optional: true, nullable: true }),
+}
 const supplierFields: Fields = {
   name: str(120, { min: 1 }),
   email: email({ optional: true, nullable: true }),
   phone: str(40, { optional: true, nullable: true }),
   leadTimeDays: int(0, 365, { optional: true }),
+  regrindTurnaroundDays: int(1, 365, { optional: true }),
   note,
 }
 // Tokens are 20 to 100 letters, digits, - and _.
@@ -117,6 +132,7 @@ const FUZZ: Record<string, FuzzEntry> = {
       orderCostCents: int(0, 10_000_000, { optional: true }),
       holdingRate: num(0.001, 5, { optional: true }),
       shiftMinutes: int(60, 1440, { optional: true }),
+      labourRateCentsPerHour: int(0, 1_000_000, { optional: true, nullable: true }),
     },
     valid: () => ({ name: 'Fuzz shop renamed' }),
   },
@@ -154,6 +170,7 @@ const FUZZ: Record<string, FuzzEntry> = {
       outcome: oneOf(CUT_OUTCOMES),
       rpm: int(1, 100_000, { optional: true, nullable: true }),
       feedMmPerMin: num(0.01, 1_000_000, { optional: true, nullable: true }),
+      cleanupMinutesPerPart: num(0, 600, { optional: true, nullable: true }),
       note,
       machineId: id({ optional: true, nullable: true }),
       cutAt: datetime({ optional: true }),
@@ -162,10 +179,29 @@ const FUZZ: Record<string, FuzzEntry> = {
     params: (r) => ({ id: r.cutters.spindle.id }),
   },
   'POST /api/cutters/[id]/flag': { special: 'JSON and multipart with a photo: its own test below' },
+  'POST /api/machines': { fields: machineFields, valid: () => ({ name: uniqueName('machine'), minRpm: 6000, maxRpm: 24000, pockets: 8 }) },
+  'PATCH /api/machines/[id]': { fields: partial(machineFields), valid: () => ({ name: uniqueName('machine renamed') }), params: (r) => ({ id: r.machineId }) },
+  'POST /api/machines/[id]/retire': { pathOnly: true, params: (r) => ({ id: r.machineId }) },
+  'POST /api/machines/[id]/restore': { pathOnly: true, params: (r) => ({ id: r.machineId }) },
   'POST /api/cutters/[id]/load': {
-    fields: { machineId: id(), idempotencyKey: str(100, { min: 8, trim: false, optional: true }) },
+    fields: { machineId: id(), returnCutterId: id({ optional: true }), pocket: int(1, 99, { optional: true }), idempotencyKey: str(100, { min: 8, trim: false, optional: true }) },
     valid: (r) => ({ machineId: r.machineId, idempotencyKey: randomUUID() }),
     params: (r) => ({ id: r.cutters.crib.id }),
+  },
+  'PUT /api/machines/[id]/tool-map': {
+    fields: { map: list(object({ tool: int(0, 9999), pocket: int(1, 99) }, { tool: 1, pocket: 1 }), 0, 200) },
+    valid: () => ({ map: [{ tool: 1, pocket: 1 }] }),
+    params: (r) => ({ id: r.machineId }),
+  },
+  'POST /api/programs': { special: 'a multipart upload of a file: its own test below' },
+  'POST /api/programs/[id]/runs': {
+    fields: {
+      machineId: id(), materialId: id(), repeats: int(1, 1000), jobRef: str(100, { optional: true }),
+      idempotencyKey: str(80, { min: 8, trim: false }),
+      adjust: list(object({ tool: int(0, 9999), minutes: num(0.01, 1440, { optional: true }), outcome: oneOf(CUT_OUTCOMES, { optional: true }) }, { tool: 1 }), 0, 100, { optional: true }),
+    },
+    valid: (r) => ({ machineId: r.machineId, materialId: r.materialId, repeats: 1, idempotencyKey: randomUUID() }),
+    params: (r) => ({ id: r.programId }),
   },
   'POST /api/cutters/[id]/return': {
     fields: { idempotencyKey: str(100, { min: 8, trim: false, optional: true }) },
@@ -191,7 +227,7 @@ const FUZZ: Record<string, FuzzEntry> = {
     valid: () => ({ csv: 'type\nTwo-flute upcut 1/4" regrindable\n' }),
   },
   'POST /api/insights/wear/adopt': {
-    fields: { from: date({ optional: true }), to: date({ optional: true }), materialIds: list(id(), 1, 500) },
+    fields: { from: date({ optional: true }), to: date({ optional: true }), materialIds: list(id(), 1, 500), confirmWide: bool({ optional: true }) },
     valid: (r) => ({ materialIds: [r.materialId] }),
   },
   'POST /api/orders': {
@@ -220,7 +256,10 @@ const FUZZ: Record<string, FuzzEntry> = {
   'POST /api/regrind/batches/[id]/send': { fields: { emailSupplier: bool({ optional: true }) }, valid: () => ({}), params: (r) => ({ id: r.draftBatchId }) },
   'POST /api/regrind/batches/[id]/receive': {
     fields: {
-      items: list(object({ cutterId: id(), diameterMm: num(0.001, 1000), costCents: int(0, 10_000_000, { optional: true }) }, { cutterId: 1, diameterMm: 6 }), 1, 500),
+      items: list(object({
+        cutterId: id(), diameterMm: num(0.001, 1000, { optional: true }), scrapReason: str(500, { min: 1, optional: true }),
+        costCents: int(0, 10_000_000, { optional: true }),
+      }, { cutterId: 1, diameterMm: 6 }), 1, 500),
     },
     valid: (r) => ({ items: [{ cutterId: r.sentBatch.cutterId, diameterMm: 6.2 }] }),
     params: (r) => ({ id: r.sentBatch.id }),
@@ -235,13 +274,18 @@ const QUERY_KEYS: Record<string, string[]> = {
   'GET /api/cutters/[id]/history': ['page', 'pageSize'],
   'GET /api/cutter-types': ['archived'],
   'GET /api/suppliers': ['archived'],
+  'GET /api/machines': ['retired'],
   'GET /api/feeds': ['typeId', 'materialId', 'machineId', 'cutterId', 'depthMm'],
+  'GET /api/bit-choice': ['materialId', 'cut', 'thicknessMm', 'machineId', 'narrowestMm'],
   'GET /api/labels': ['ids', 'typeId', 'orderId'],
   'GET /api/export/cut-logs.csv': ['from', 'to'],
   'GET /api/insights/cost': ['from', 'to', 'by'],
   'GET /api/insights/outcomes': ['from', 'to'],
+  'GET /api/insights/cleanup': ['from', 'to'],
   'GET /api/insights/spend': ['from', 'to'],
   'GET /api/insights/wear': ['from', 'to'],
+  'GET /api/insights/jobs': ['from', 'to'],
+  'GET /api/programs/[id]/check': ['machineId', 'materialId', 'repeats'],
 }
 
 let shop: TestShop
@@ -414,6 +458,31 @@ describe('hostile input', () => {
     expect([...badJson, ...badMultipart], problemsOf('the flag answered other than 4xx')).toEqual([])
     expect(await uploadFiles()).toEqual([])
     await assertUnchanged('the flag')
+  })
+
+  it('a program upload answers 4xx to hostile JSON and to files that are not programs, and keeps nothing', async () => {
+    const json = fc.sample(hostileBody({ spindleTool: int(0, 9999, { optional: true }) }, { spindleTool: 1 }, { emptyIsValid: false }), { numRuns: RUNS, seed: SEED - 3 })
+    const files = fc.sample(fc.record({
+      data: fc.oneof(
+        fc.uint8Array({ minLength: 0, maxLength: 3000 }),
+        // Text with no cutting move in it, or with words the reader refuses before any F or tool.
+        fc.string({ maxLength: 500 }).map((t) => t.replace(/[GgFf]/g, '')),
+      ),
+      name: fc.oneof(fc.constant('job.ngc'), fc.string({ maxLength: 300 })),
+      spindleTool: fc.option(fc.oneof(fc.string({ maxLength: 10 }), fc.integer().map(String))),
+      field: fc.constantFrom('file', 'photo', '__proto__', 'upload'),
+    }), { numRuns: RUNS, seed: SEED - 4 })
+    const badJson = await sendAll(json, (s) => shop.owner.send('POST', '/api/programs', s.body, s.contentType ? { 'content-type': s.contentType } : {}), isClientError, (s) => `[${s.label}] ${show(s.body)}`)
+    const badFiles = await sendAll(files, (f) => {
+      const form = new FormData()
+      if (f.spindleTool !== null) form.set('spindleTool', f.spindleTool)
+      form.set(f.field, new Blob([typeof f.data === 'string' ? f.data : new Uint8Array(f.data)]), f.name || 'x')
+      return shop.owner.send('POST', '/api/programs', form)
+    }, isClientError, (f) => `file ${f.field}=${f.name} (${f.data.length}) spindleTool=${JSON.stringify(f.spindleTool)}`)
+    expect([...badJson, ...badFiles], problemsOf('the program upload answered other than 4xx')).toEqual([])
+    const programFiles = await readdir(path.join(process.env.KERFBOOK_TEST_UPLOADS_DIR!, 'programs', String(shop.id))).catch(() => [])
+    expect(programFiles).toEqual([])
+    await assertUnchanged('the program upload')
   })
 
   it('the flag refuses a photo over the limit before reading it, and a valid flag with a disguised file stays unflagged', async () => {

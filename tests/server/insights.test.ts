@@ -165,35 +165,59 @@ describe('spend and outcomes', () => {
 })
 
 describe('learned wear', () => {
-  it('learns from finished lives only, pulled toward the starting factor while data is thin', async () => {
+  it('reads every life: worn-out ones as failures, still-sharp and broken ones as censored; MDF is the unit', async () => {
     const res = await shop.crib.get('/api/insights/wear')
     expect(res.status).toBe(200)
     const by = Object.fromEntries(res.body.materials.map((m: { name: string }) => [m.name, m]))
-    // One life: the fit moves a third of the way from 1.0 toward the 2.0 that life says.
-    expect(by.MDF).toMatchObject({ startingFactor: 1, learnedFactor: 1.333, lives: 1, minutes: 300, confidence: 'thin: 1 life' })
-    // c0 is still sharp and c1 broke: neither says anything about wear.
-    expect(by.HDPE).toMatchObject({ startingFactor: 0.6, learnedFactor: 0.6, lives: 0, confidence: 'no data' })
-    expect(by['Cast acrylic']).toMatchObject({ lives: 0 })
+    // MDF (starting factor 1, the first such) is the reference: c2's life ended dull after 300 min
+    // of MDF at a rated 600, so it speaks about the type's rated life, not about MDF.
+    expect(res.body.referenceMaterialId).toBe(mat.MDF)
+    expect(by.MDF).toMatchObject({ startingFactor: 1, learnedFactor: 1, lives: 3, finishedLives: 1, censoredLives: 2, minutes: 450, group: [] })
+    expect(by.MDF.flags[0]).toMatch(/^The reference material/)
+    // c1 broke after 45 min of HDPE: censored, so HDPE keeps close to its figure, with a wide interval.
+    expect(by.HDPE).toMatchObject({ startingFactor: 0.6, lives: 1, finishedLives: 0, censoredLives: 1 })
+    expect(by.HDPE.interval[0]).toBeLessThan(by.HDPE.learnedFactor)
+    expect(by.HDPE.interval[1]).toBeGreaterThan(by.HDPE.learnedFactor)
+    expect(by.HDPE.flags).toContain('Too few lives: 0 lives ended by wear (5 make a fair figure).')
+    expect(by.Softwood).toMatchObject({ lives: 0, learnedFactor: 0.7, interval: null, flags: ['No lives cut it in these dates: the starting figure stands.'] })
+    // Cast acrylic and aluminium composite panel were only ever cut on c0, 60 : 90: always together.
+    expect(by['Cast acrylic'].group).toEqual([{ materialId: mat['Aluminium composite panel'], name: 'Aluminium composite panel' }])
+    expect(by['Cast acrylic'].flags).toContain('Cannot be told apart from Aluminium composite panel: always cut together.')
+    // The one type: its lives were read against the rated 600 min; one dull life at 300 min pulls its ratio below 1.
+    expect(res.body.types).toHaveLength(1)
+    expect(res.body.types[0]).toMatchObject({ typeId: fx.typeId, ratedLifeMinutes: 600, finishedLives: 1, censoredLives: 2 })
+    expect(res.body.types[0].ratedLifeRatio).toBeLessThan(1)
+    expect(res.body.scatter).toBeGreaterThan(0)
   })
 
-  it('adopting writes the learned factor, records who, and leaves past logs as they were', async () => {
-    const res = await shop.crib.post('/api/insights/wear/adopt', { materialIds: [mat.MDF, mat.HDPE] })
+  it('adopting a figure with a wide interval asks first; confirmed, it writes the factor, records who, and leaves past logs', async () => {
+    // c3 wears out after 200 min of HDPE, a third of its rated life at the figure in use: one
+    // life, so HDPE moves toward the data, with a wide interval.
+    expect((await cut(shop.operator, fx.cutters[3]!.id, { materialId: mat.HDPE, minutes: 200 })).status).toBe(201)
+    expect((await shop.operator.post(`/api/cutters/${fx.cutters[3]!.id}/flag`, { kind: 'dull' })).status).toBe(200)
+    const asked = await shop.crib.post('/api/insights/wear/adopt', { materialIds: [mat.MDF, mat.HDPE] })
+    expect(asked.status).toBe(409)
+    expect(asked.body.message).toMatch(/HDPE .* uncertain: confirm to adopt anyway/)
+    const learned = ((await shop.crib.get('/api/insights/wear')).body.materials as Array<{ name: string, learnedFactor: number }>).find((m) => m.name === 'HDPE')!.learnedFactor
+    expect(learned).toBeGreaterThan(0.6)
+    const res = await shop.crib.post('/api/insights/wear/adopt', { materialIds: [mat.MDF, mat.HDPE], confirmWide: true })
     expect(res.status).toBe(200)
-    expect(res.body.adopted).toEqual([{ materialId: mat.MDF, name: 'MDF', from: 1, to: 1.333, lives: 1 }])
+    // MDF, the reference, never changes.
+    expect(res.body.adopted).toEqual([{ materialId: mat.HDPE, name: 'HDPE', from: 0.6, to: learned, lives: 2 }])
     expect(res.body.message).toMatch(/1 left as they were/)
     const db = appDb()
     try {
-      const m = await db.selectFrom('materials').select('wear_factor').where('id', '=', mat.MDF!).executeTakeFirstOrThrow()
-      expect(m.wear_factor).toBe(1.333)
+      const m = await db.selectFrom('materials').select('wear_factor').where('id', '=', mat.HDPE!).executeTakeFirstOrThrow()
+      expect(m.wear_factor).toBe(learned)
       const record = await db.selectFrom('wear_factor_adoptions').selectAll().where('shop_id', '=', shop.id).execute()
-      expect(record).toEqual([expect.objectContaining({ material_id: mat.MDF, from_factor: 1, to_factor: 1.333, lives: 1, adopted_by: shop.ids.crib })])
-      const old = await db.selectFrom('cut_logs').select('wear_factor').where('shop_id', '=', shop.id).where('material_id', '=', mat.MDF!).execute()
-      expect(old.every((l) => l.wear_factor === 1)).toBe(true)
+      expect(record).toEqual([expect.objectContaining({ material_id: mat.HDPE, from_factor: 0.6, to_factor: learned, lives: 2, adopted_by: shop.ids.crib })])
+      const old = await db.selectFrom('cut_logs').select('wear_factor').where('shop_id', '=', shop.id).where('material_id', '=', mat.HDPE!).execute()
+      expect(old.every((l) => l.wear_factor === 0.6)).toBe(true)
     } finally {
       await db.destroy()
     }
-    const next = await cut(shop.operator, fx.cutters[3]!.id, { materialId: mat.MDF, minutes: 60 })
-    expect(next.body.log.wearFactor).toBe(1.333)
+    const next = await cut(shop.operator, fx.cutters[0]!.id, { materialId: mat.HDPE, minutes: 60 })
+    expect(next.body.log.wearFactor).toBe(learned)
   })
 
   it('answers 404 for another shop\'s material', async () => {

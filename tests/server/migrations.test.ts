@@ -4,10 +4,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { connect, type Db } from '../../server/db/connect'
 import { freshDatabase, migrate } from '../support/db'
 import { down as dropChipLoads, up as addChipLoads } from '../../migrations/2026_12_04_0001_feeds'
+import { down as machinesDown, up as machinesUp } from '../../migrations/2026_12_07_0001_machines'
 
 const TABLES = ['shops', 'users', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
   'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
-  'regrind_batch_items', 'tooling_reports', 'chip_loads', 'cut_log_daily', 'cut_sharp_lives', 'wear_factor_adoptions']
+  'regrind_batch_items', 'tooling_reports', 'chip_loads', 'cut_log_daily', 'cut_sharp_lives', 'cut_cleanup_daily', 'wear_factor_adoptions',
+  'machine_tool_pockets', 'nc_programs', 'nc_runs', 'nc_run_logs']
 
 let url: string
 let db: Db
@@ -120,5 +122,31 @@ describe('the chip-load table', () => {
     const row = { shop_id: shopId, family: 'wood' as const, diameter_min_mm: 20, diameter_max_mm: 30, chip_load_min_mm: 0.2, chip_load_max_mm: 0.1, source: 'test' }
     await expect(db.insertInto('chip_loads').values(row).execute()).rejects.toThrow(/check constraint/)
     await expect(db.insertInto('chip_loads').values({ ...row, diameter_min_mm: 0, chip_load_max_mm: 0.3 }).execute()).rejects.toThrow(/duplicate key/)
+  })
+})
+
+describe('machines count pockets instead of a yes/no tool changer', () => {
+  it('a changer becomes 8 pockets and a manual collet 0, and back; names differing only in case get a suffix', async () => {
+    const shopId = (await db.insertInto('shops').values({ name: 'Pocket shop' }).returning('id').executeTakeFirstOrThrow()).id
+    await db.insertInto('machines').values([
+      { shop_id: shopId, name: 'Changer', min_rpm: 6000, max_rpm: 24000, pockets: 8 },
+      { shop_id: shopId, name: 'Collet', min_rpm: 8000, max_rpm: 24000, pockets: 0 },
+    ]).execute()
+    // Their own down and up, called directly, so that a later migration does not change what is undone.
+    await machinesDown(db)
+    const old = await sql<{ name: string, tool_changer: boolean }>`select name, tool_changer from machines where shop_id = ${shopId} order by name`.execute(db)
+    expect(old.rows).toEqual([{ name: 'Changer', tool_changer: true }, { name: 'Collet', tool_changer: false }])
+    await sql`insert into machines (shop_id, name, min_rpm, max_rpm) values (${shopId}, 'COLLET', 500, 500)`.execute(db)
+    await machinesUp(db)
+    const rows = await db.selectFrom('machines').select(['name', 'pockets', 'min_rpm', 'max_rpm']).where('shop_id', '=', shopId).orderBy('id').execute()
+    expect(rows).toEqual([
+      { name: 'Changer', pockets: 8, min_rpm: 6000, max_rpm: 24000 },
+      { name: 'Collet', pockets: 0, min_rpm: 8000, max_rpm: 24000 },
+      // Brought inside the 1,000 to 100,000 rpm rule, min below max.
+      { name: 'COLLET (2)', pockets: 0, min_rpm: 1000, max_rpm: 1001 },
+    ])
+    await expect(db.insertInto('machines').values({ shop_id: shopId, name: 'changer', min_rpm: 6000, max_rpm: 24000 }).execute()).rejects.toThrow(/duplicate key/)
+    await expect(db.insertInto('machines').values({ shop_id: shopId, name: 'Fast', min_rpm: 6000, max_rpm: 24000, pockets: 100 }).execute()).rejects.toThrow(/check constraint/)
+    await expect(db.insertInto('machines').values({ shop_id: shopId, name: 'Slow', min_rpm: 999, max_rpm: 24000 }).execute()).rejects.toThrow(/check constraint/)
   })
 })

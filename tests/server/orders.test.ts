@@ -1,10 +1,12 @@
 // Reordering from measured demand, and purchase orders from suggestion to received stock.
+import jstat from 'jstat'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { appDb } from '../support/db'
 import { Client, waitForMail } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
 import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
 
+const { jStat } = jstat
 const DAY = 86_400_000
 let shop: TestShop
 let other: TestShop
@@ -49,7 +51,13 @@ describe('reorder figures', () => {
     const row = res.body.find((r: { typeId: number }) => r.typeId === fx.typeId)
     expect(row.dailyDemand).toBeCloseTo(1, 9)
     expect(row.sdDailyDemand).toBeCloseTo(0, 9)
-    expect(row.reorderPoint).toBeCloseTo(7, 6) // d̄ · L + z · 0 · √L
+    // One cutter a day over 7 days is 7 cutters over the lead time: a slow mover, so Poisson decides.
+    // The smallest s with P(D ≤ s) ≥ 95 %, found again from jStat's Poisson distribution.
+    expect(row.method).toBe('poisson')
+    expect(row.leadTimeDemand).toBeCloseTo(7, 9)
+    let s = 0
+    while (jStat.poisson.cdf(s, 7) < 0.95) s++
+    expect(row.reorderPoint).toBe(s)
     // EOQ = √(2 · 365 · $25 / ($40 · 0.25)) = √1825 ≈ 42.7, rounded up to packs of two: 44.
     expect(row.economicOrderQuantity).toBeCloseTo(Math.sqrt(1825), 6)
     expect(row).toMatchObject({ available: 3, onOrder: 0, belowReorderPoint: true, suggestedQty: 44, leadTimeDays: 7, supplierName: 'Quarry Lane Tooling' })

@@ -3,7 +3,10 @@ import { Hash } from '@adonisjs/hash'
 import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import { sql } from 'kysely'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import jstat from 'jstat'
 import { connect, type Db } from '../../server/db/connect'
+import { reorderRows } from '../../server/utils/crib/reorder'
+import { stockInsight } from '../../server/utils/insights/stock'
 import { freshDatabase, migrate, runScript } from '../support/db'
 
 const SHOP = 'Millrace Signs & Displays'
@@ -60,6 +63,26 @@ describe('the demo shop seed', () => {
     expect(secondRun).toContain('[seed] the demo shop is already there: nothing changed')
     expect(after).toEqual(before)
     expect(after.counts.shops).toBe(1)
+  })
+
+  it('reorders its router bits as the slow movers they are: Poisson reorder points in whole cutters, in plain words', async () => {
+    const { jStat } = jstat
+    const shop = await db.selectFrom('shops').select('id').where('name', '=', SHOP).executeTakeFirstOrThrow()
+    const rows = await reorderRows(db, shop.id)
+    expect(rows.length).toBeGreaterThan(3)
+    for (const r of rows) {
+      expect(Number.isInteger(r.reorderPoint) && Number.isInteger(r.suggestedQty), r.typeName).toBe(true)
+      expect(r.explanation.length, r.typeName).toBeGreaterThan(20)
+      if (r.method !== 'poisson') continue
+      // The smallest s with P(D ≤ s) ≥ the service level, found again from jStat's Poisson distribution.
+      let s = 0
+      while (r.leadTimeDemand > 0 && jStat.poisson.cdf(s, r.leadTimeDemand) < r.serviceLevel) s++
+      expect(r.reorderPoint, r.typeName).toBe(s)
+    }
+    // Every demo type is used at most a few times a month: all are decided by Poisson demand.
+    expect(rows.every((r) => r.method === 'poisson')).toBe(true)
+    const stock = await stockInsight(db, shop.id)
+    for (const r of stock.rows) expect(r.tiedUpCents).toBe(r.inStock * r.unitCostCents)
   })
 
   it('has cutters in every status', async () => {

@@ -170,12 +170,12 @@ describe('loading', () => {
     expect(events.filter((e) => e.kind === 'loaded')).toHaveLength(1)
   })
 
-  it('loading into a machine without a tool changer returns the bit that was in it', async () => {
+  it('loading into a machine without a tool changer that holds a bit is refused (machines.test.ts has the rest)', async () => {
     const [first, second] = [fx.cutters[6]!, fx.cutters[7]!]
     expect((await shop.operator.post(`/api/cutters/${first.id}/load`, { machineId: fx.machines.single })).status).toBe(200)
     const res = await shop.operator.post(`/api/cutters/${second.id}/load`, { machineId: fx.machines.single })
-    expect(res.body.cutter).toMatchObject({ status: 'in_spindle', machine: { id: fx.machines.single } })
-    expect((await dbRow(first.id)).cutter).toMatchObject({ status: 'in_crib', machine_id: null })
+    expect(res.status).toBe(409)
+    expect((await dbRow(first.id)).cutter).toMatchObject({ status: 'in_spindle', machine_id: fx.machines.single })
   })
 
   it('an unknown machine is a 400 naming the field', async () => {

@@ -70,7 +70,15 @@ export class Client {
 }
 
 /** Mail caught by the test mail catcher, newest last. */
-export async function caughtMail(): Promise<Array<{ to: string[], subject: string, text: string, html: string }>> {
+export interface CaughtMessage {
+  to: string[]
+  subject: string
+  text: string
+  html: string
+  attachments: Array<{ filename: string, contentType: string, contentBase64: string }>
+}
+
+export async function caughtMail(): Promise<CaughtMessage[]> {
   const res = await fetch(`${process.env.KERFBOOK_TEST_MAIL_URL}/messages.json`)
   return res.json()
 }

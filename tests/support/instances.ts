@@ -94,7 +94,7 @@ export async function signUpShop(baseUrl: string, databaseUrl: string, label: st
   const ratedLife = 600
   const db = connect(databaseUrl, 2)
   try {
-    const machine = await db.insertInto('machines').values({ shop_id: id, name: 'Big table', min_rpm: 6000, max_rpm: 24000, tool_changer: true })
+    const machine = await db.insertInto('machines').values({ shop_id: id, name: 'Big table', min_rpm: 6000, max_rpm: 24000, pockets: 8 })
       .returning('id').executeTakeFirstOrThrow()
     const type = await db.insertInto('cutter_types').values({
       shop_id: id, name: 'Two-flute upcut 1/4"', profile: 'square_end', helix: 'upcut', flutes: 2, cutting_diameter_mm: 6.35,

@@ -19,6 +19,8 @@ export interface ShopRecords {
   sentBatch: { id: number, cutterId: number }
   reportId: number
   uploadId: number
+  /** An NC program calling T1, read at the default machine settings. */
+  programId: number
 }
 
 export async function addShopRecords(shopId: number, ownerId: number): Promise<ShopRecords> {
@@ -54,7 +56,14 @@ export async function addShopRecords(shopId: number, ownerId: number): Promise<S
       shop_id: shopId, storage_key: `photos/${shopId}/${randomUUID()}.png`, kind: 'photo', content_type: 'image/png', size_bytes: 1,
       uploaded_by: ownerId,
     }).returning('id').executeTakeFirstOrThrow()
+    const tool = { tool: 1, feedDistanceMm: 100, plungeDistanceMm: 5, feedMinutes: 0.1, estimatedMinutes: 0.12, rapidMinutes: 0.01, maxDepthMm: 5, spindleRpm: [18000], feedsMmPerMin: [1000] }
+    const program = await db.insertInto('nc_programs').values({
+      shop_id: shopId, name: 'Records program', size_bytes: 40, storage_key: `programs/${shopId}/${randomUUID()}.nc`, units: 'mm',
+      tools: JSON.stringify([tool]), estimates: JSON.stringify({ '1000/10000': [{ tool: 1, estimatedMinutes: 0.12, rapidMinutes: 0.01 }] }),
+      tool_count: 1, total_minutes: 0.12, line_count: 5, uploaded_by: ownerId,
+    }).returning('id').executeTakeFirstOrThrow()
     return {
+      programId: program.id,
       supplierId: fixture.supplier.id, machineId: fixture.machineId, materialId: material.id, typeId: fixture.typeId, chipLoadId: chipLoad.id,
       cutters: { crib: crib!, spindle: spindle!, lost: lost!, dull: dull!, away: away! },
       draftOrderId: draft!.id, sentOrder: { id: sent!.id, lineId: sentLine!.id },

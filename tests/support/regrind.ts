@@ -28,7 +28,7 @@ export async function addRegrindFixture(shopId: number, supplierEmail: string): 
   try {
     const supplier = await db.insertInto('suppliers').values({ shop_id: shopId, name: 'Test Regrind Works', email: supplierEmail })
       .returning('id').executeTakeFirstOrThrow()
-    const machine = await db.insertInto('machines').values({ shop_id: shopId, name: 'Test table', min_rpm: 6000, max_rpm: 24000, tool_changer: true })
+    const machine = await db.insertInto('machines').values({ shop_id: shopId, name: 'Test table', min_rpm: 6000, max_rpm: 24000, pockets: 8 })
       .returning('id').executeTakeFirstOrThrow()
     const type = await db.insertInto('cutter_types').values({
       shop_id: shopId, supplier_id: supplier.id, name: 'Two-flute upcut 1/4" regrindable', profile: 'square_end', helix: 'upcut', flutes: 2,

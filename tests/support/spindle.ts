@@ -12,9 +12,9 @@ export async function addSpindleFixture(shopId: number, cutterCount = 3, ratedLi
   const db = appDb()
   try {
     const [changer, single, other] = await db.insertInto('machines').values([
-      { shop_id: shopId, name: 'Big table with changer', min_rpm: 6000, max_rpm: 24000, tool_changer: true },
-      { shop_id: shopId, name: 'Small router', min_rpm: 10000, max_rpm: 30000, tool_changer: false },
-      { shop_id: shopId, name: 'Second big table', min_rpm: 8000, max_rpm: 24000, tool_changer: true },
+      { shop_id: shopId, name: 'Big table with changer', min_rpm: 6000, max_rpm: 24000, pockets: 8 },
+      { shop_id: shopId, name: 'Small router', min_rpm: 10000, max_rpm: 30000, pockets: 0 },
+      { shop_id: shopId, name: 'Second big table', min_rpm: 8000, max_rpm: 24000, pockets: 8 },
     ]).returning('id').execute()
     const type = await db.insertInto('cutter_types').values({
       shop_id: shopId, name: 'Two-flute upcut 1/4"', profile: 'square_end', helix: 'upcut', flutes: 2, cutting_diameter_mm: 6.35,

@@ -1,6 +1,6 @@
 // Tooling cost per life and per cut-hour, checked against an example worked by hand.
 import { describe, expect, it } from 'vitest'
-import { costPerCutHourCents, costPerLifeCents, costRows, cutCostCents, rate } from '../../shared/kerf/cost'
+import { cleanupCentsPerPart, costPerCutHourCents, costPerLifeCents, costRows, cutCostCents, rate } from '../../shared/kerf/cost'
 
 // A $40.00 cutter, $10.00 a regrind, at most 2 regrinds, reground lives 0.8 of a new one:
 // 1 + 2 × 0.8 = 2.6 lives for $40 + 2 × $10 = $60, so one life costs 6000 / 2.6 = 2307.69 cents.
@@ -49,5 +49,19 @@ describe('cost per cut-hour', () => {
   it('a rate with no logs is no rate', () => {
     expect(rate(1, 4)).toBe(0.25)
     expect(rate(0, 0)).toBeNull()
+  })
+})
+
+describe('cleanup in money', () => {
+  it('prices minutes per part at the labour rate, worked by hand', () => {
+    // 10 min a part at $42.00 an hour: 10 / 60 × 4200 = 700 cents. 2.5 min at $37.50: 156.25, rounded to 156.
+    expect(cleanupCentsPerPart(10, 4200)).toBe(700)
+    expect(cleanupCentsPerPart(2.5, 3750)).toBe(156)
+    expect(cleanupCentsPerPart(0, 4200)).toBe(0)
+  })
+
+  it('has no price without minutes or without a rate', () => {
+    expect(cleanupCentsPerPart(null, 4200)).toBeNull()
+    expect(cleanupCentsPerPart(10, null)).toBeNull()
   })
 })

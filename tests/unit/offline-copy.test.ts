@@ -20,7 +20,7 @@ const copy: OfflineCopy = {
     { id: 1, name: 'MDF', family: 'sheet_goods', wearFactor: 1, common: true },
     { id: 2, name: 'Cast acrylic', family: 'hard_plastic', wearFactor: 1.5, common: true },
   ],
-  machines: [{ id: 4, name: 'Big router', description: '', minRpm: 6000, maxRpm: 24000, toolChanger: true }],
+  machines: [{ id: 4, name: 'Big router', pockets: 8, loaded: [{ id: 1, code: 'K7Q2M9P', pocket: 1 }] }],
 }
 
 describe('a cutter from the copy', () => {

@@ -18,6 +18,8 @@ export default defineEventHandler(async (event) => {
       minUsableDiameterMm: body.minUsableDiameterMm ?? row.min_usable_diameter_mm,
       cuttingLengthMm: body.cuttingLengthMm ?? row.cutting_length_mm,
       overallLengthMm: body.overallLengthMm ?? row.overall_length_mm,
+      minOnHand: body.minOnHand !== undefined ? body.minOnHand : row.min_on_hand,
+      maxOnHand: body.maxOnHand !== undefined ? body.maxOnHand : row.max_on_hand,
     }))
     await assertSupplier(tx, user.shopId, body.supplierId)
     if (body.name !== undefined) await assertNameFree(tx, 'cutter_types', user.shopId, body.name, id)

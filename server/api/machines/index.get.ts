@@ -1,11 +1,9 @@
-// The shop's machines, with their spindle speed ranges.
+// The shop's machines, with their spindle speed ranges, pockets and the cutters in them;
+// `?retired=include` adds the retired ones (the crib's machine page).
+import { MachineListQuery } from '#shared/schemas/machines'
+
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
-  const rows = await useDb().selectFrom('machines')
-    .select(['id', 'name', 'description', 'min_rpm', 'max_rpm', 'tool_changer'])
-    .where('shop_id', '=', user.shopId).where('active', '=', true)
-    .orderBy('name').execute()
-  return rows.map((m) => ({
-    id: m.id, name: m.name, description: m.description, minRpm: m.min_rpm, maxRpm: m.max_rpm, toolChanger: m.tool_changer,
-  }))
+  const { retired } = await getValidatedQuery(event, parseWith(MachineListQuery))
+  return listMachines(useDb(), user.shopId, { retired: retired === 'include' })
 })

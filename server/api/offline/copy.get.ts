@@ -19,8 +19,7 @@ export default defineEventHandler(async (event): Promise<OfflineCopy> => {
       .where('shop_id', '=', user.shopId).orderBy('id').execute(),
     db.selectFrom('materials').select(['id', 'name', 'family', 'wear_factor', 'common'])
       .where('shop_id', '=', user.shopId).where('active', '=', true).orderBy('common', 'desc').orderBy('name').execute(),
-    db.selectFrom('machines').select(['id', 'name', 'description', 'min_rpm', 'max_rpm', 'tool_changer'])
-      .where('shop_id', '=', user.shopId).where('active', '=', true).orderBy('name').execute(),
+    listMachines(db, user.shopId, { retired: false }),
   ])
   setResponseHeader(event, 'cache-control', 'private, no-store')
   return {
@@ -36,8 +35,7 @@ export default defineEventHandler(async (event): Promise<OfflineCopy> => {
     cutters: cutters.map((c) => [c.id, c.code, c.type_id, c.status, c.machine_id, c.regrind_count, c.diameter_mm, c.life_used,
       c.life_scale, c.minutes_total, c.minutes_this_life, c.flagged]),
     materials: materials.map((m) => ({ id: m.id, name: m.name, family: m.family, wearFactor: m.wear_factor, common: m.common })),
-    machines: machines.map((m) => ({
-      id: m.id, name: m.name, description: m.description, minRpm: m.min_rpm, maxRpm: m.max_rpm, toolChanger: m.tool_changer,
-    })),
+    // As GET /api/machines has them, so the load picker works the same without a connection.
+    machines,
   }
 })

@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   await requireSupplier(db, user.shopId, id)
   if (body.name !== undefined) await assertNameFree(db, 'suppliers', user.shopId, body.name, id)
   const changes = {
-    name: body.name, email: body.email, phone: body.phone, lead_time_days: body.leadTimeDays, note: body.note, active: body.active,
+    name: body.name, email: body.email, phone: body.phone, lead_time_days: body.leadTimeDays, regrind_turnaround_days: body.regrindTurnaroundDays, note: body.note, active: body.active,
   }
   if (Object.values(changes).some((v) => v !== undefined)) {
     await withUniqueName('suppliers', () => db.updateTable('suppliers').set(changes)

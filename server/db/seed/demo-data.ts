@@ -6,6 +6,8 @@ export const DEMO_SHOP = {
   name: 'Millrace Signs & Displays',
   lifeThreshold: 0.9,
   regrindLifeFraction: 0.8,
+  // Hand-finishing, $42.00 an hour: prices the cleanup minutes on the owner's insights.
+  labourRateCentsPerHour: 4200,
   reportRecipients: ['crib@example.com', 'owner@example.com'],
 }
 
@@ -23,7 +25,7 @@ export const PEOPLE: DemoPerson[] = [
 export const CRIB_EMAIL = 'crib@example.com'
 
 export interface DemoMachine {
-  key: string, name: string, description: string, minRpm: number, maxRpm: number, toolChanger: boolean
+  key: string, name: string, description: string, minRpm: number, maxRpm: number, pockets: number
   /** The operator who runs it most; the others fill in. */
   mainOperator: string
   /** Largest shank its collets take, mm. */
@@ -31,9 +33,9 @@ export interface DemoMachine {
 }
 
 export const MACHINES: DemoMachine[] = [
-  { key: 'big', name: 'Big Bay 4×8', description: '4×8 ft router with a linear tool changer and vacuum table', minRpm: 6000, maxRpm: 24000, toolChanger: true, mainOperator: 'operator@example.com', maxShankMm: 12.7 },
-  { key: 'long', name: 'Long Bay 5×10', description: '5×10 ft router, manual collet changes', minRpm: 8000, maxRpm: 24000, toolChanger: false, mainOperator: 'operator2@example.com', maxShankMm: 12.7 },
-  { key: 'bench', name: 'Little Bench', description: 'Desktop router for engraving and small parts', minRpm: 10000, maxRpm: 30000, toolChanger: false, mainOperator: 'operator3@example.com', maxShankMm: 6.35 },
+  { key: 'big', name: 'Big Bay 4×8', description: '4×8 ft router with a linear tool changer and vacuum table', minRpm: 6000, maxRpm: 24000, pockets: 8, mainOperator: 'operator@example.com', maxShankMm: 12.7 },
+  { key: 'long', name: 'Long Bay 5×10', description: '5×10 ft router, manual collet changes', minRpm: 8000, maxRpm: 24000, pockets: 0, mainOperator: 'operator2@example.com', maxShankMm: 12.7 },
+  { key: 'bench', name: 'Little Bench', description: 'Desktop router for engraving and small parts', minRpm: 10000, maxRpm: 30000, pockets: 0, mainOperator: 'operator3@example.com', maxShankMm: 6.35 },
 ]
 
 export interface DemoMaterial { key: string, name: string, family: MaterialFamily, wearFactor: number, common: boolean }

@@ -317,3 +317,24 @@ function spindleSpeed(rng: Random, family: MaterialFamily, diameter: number, min
   const base = family === 'foam' || family === 'soft_plastic' ? 16000 : diameter > 10 ? 16000 : 18000
   return Math.min(max, Math.max(min, Math.round((base + rng.float(-1500, 1500)) / 500) * 500))
 }
+
+/**
+ * The cleanup minutes per part an operator logged with a cut, or null when none were given. Drawn
+ * from a generator of its own per cut (seeded by the cut's place in time order), so adding them
+ * leaves the rest of the simulated year as it was. The story: poor edges cost minutes; a two-flute
+ * upcut in soft plastic leaves fuzz that costs a little even on cuts logged clean.
+ */
+export function cleanupMinutes(cut: SimCut, t: DemoCutterType, n: number): number | null {
+  const rng = new Random(mulberry32(0xC1EA + n * 7919))
+  if (cut.outcome === 'broken') return null
+  if (cut.outcome !== 'clean') {
+    if (!rng.chance(0.7)) return null
+    const [lo, hi] = cut.outcome === 'melted' ? [6, 15] : cut.outcome === 'fuzzy' ? [4, 12] : [3, 9]
+    return Math.round(rng.float(lo, hi) * 2) / 2
+  }
+  const fuzzyGeometry = t.flutes >= 2 && t.helix === 'upcut' && t.profile === 'square_end'
+  if (fuzzyGeometry && (cut.material.family === 'soft_plastic' || cut.material.family === 'foam') && rng.chance(0.8)) {
+    return Math.round(rng.float(6, 12) * 2) / 2
+  }
+  return null
+}

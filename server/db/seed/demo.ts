@@ -9,7 +9,7 @@ import { startingChipLoadRows } from '../../utils/spindle/chip-loads'
 import {
   CRIB_EMAIL, CUTTER_TYPES, DEMO_PASSWORD, DEMO_SHOP, MACHINES, MATERIALS, OPEN_ORDER, PEOPLE, REGRIND_SUPPLIER, SUPPLIERS,
 } from './demo-data'
-import { BATCH_SENDS, DAY, OPEN_BATCH_SEND, OPEN_ORDER_DAY, ORDER_DAYS, Random, TURNAROUND, mulberry32, simulateYear, type History } from './demo-history'
+import { BATCH_SENDS, DAY, cleanupMinutes, OPEN_BATCH_SEND, OPEN_ORDER_DAY, ORDER_DAYS, Random, TURNAROUND, mulberry32, simulateYear, type History } from './demo-history'
 
 export { DEMO_PASSWORD, DEMO_SHOP, PEOPLE as DEMO_PEOPLE } from './demo-data'
 
@@ -56,7 +56,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
 
   const shop = await tx.insertInto('shops').values({
     name: DEMO_SHOP.name, report_recipients: DEMO_SHOP.reportRecipients, life_threshold: DEMO_SHOP.lifeThreshold,
-    regrind_life_fraction: DEMO_SHOP.regrindLifeFraction, created_at: setUp,
+    regrind_life_fraction: DEMO_SHOP.regrindLifeFraction, labour_rate_cents_per_hour: DEMO_SHOP.labourRateCentsPerHour, created_at: setUp,
   }).returning('id').executeTakeFirstOrThrow()
   const shopId = shop.id
 
@@ -67,7 +67,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
   const crib = userId(CRIB_EMAIL)
 
   const machines = await tx.insertInto('machines').values(MACHINES.map((m) => ({
-    shop_id: shopId, name: m.name, description: m.description, min_rpm: m.minRpm, max_rpm: m.maxRpm, tool_changer: m.toolChanger, created_at: setUp,
+    shop_id: shopId, name: m.name, description: m.description, min_rpm: m.minRpm, max_rpm: m.maxRpm, pockets: m.pockets, created_at: setUp,
   }))).returning(['id', 'name']).execute()
   const machineId = (key: string) => idsBy(machines, 'name')(MACHINES.find((m) => m.key === key)!.name)
 
@@ -133,8 +133,18 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
     batchIds.set(b, row.id)
   }
 
+  // Cutters loaded in a machine with a tool changer sit in its pockets, 1 upwards.
+  const filled = new Map<string, number>()
+  const pocketOf = (c: { status: string, machine?: string | null }): number | null => {
+    const pockets = c.machine && c.status === 'in_spindle' ? MACHINES.find((m) => m.key === c.machine)!.pockets : 0
+    if (!pockets) return null
+    const next = (filled.get(c.machine!) ?? 0) + 1
+    filled.set(c.machine!, next)
+    return next <= pockets ? next : null
+  }
   const cutters = await tx.insertInto('cutters').values(h.cutters.map((c) => ({
     shop_id: shopId, type_id: typeId(c.type.key), code: c.code, status: c.status, machine_id: c.machine ? machineId(c.machine) : null,
+    pocket: pocketOf(c),
     diameter_mm: c.diameter, regrind_count: c.regrindCount, life_scale: c.lifeScale, life_used: c.lifeUsed,
     minutes_this_life: c.minutesThisLife, minutes_total: c.minutesTotal, flagged: c.flagged,
     flagged_at: c.flaggedAt ? new Date(c.flaggedAt) : null, retired_reason: c.retiredReason,
@@ -150,6 +160,7 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
     shop_id: shopId, cutter_id: cutterId(c.cutter), machine_id: machineId(c.machine), operator_id: userId(c.operator),
     material_id: materialId(c.material.name), minutes: c.minutes, wear_factor: c.material.wearFactor, life_added: c.lifeAdded,
     regrind_count: c.regrindCount, rpm: c.rpm, feed_mm_per_min: c.feed, outcome: c.outcome, note: c.note,
+    cleanup_minutes_per_part: cleanupMinutes(c, h.cutters[c.cutter]!.type, n),
     idempotency_key: `seed-cut-${String(n + 1).padStart(5, '0')}`, cut_at: new Date(c.at), created_at: new Date(c.at),
   })))
   const events = [...h.events].sort((a, b) => a.at - b.at)

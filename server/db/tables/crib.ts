@@ -13,6 +13,7 @@ export interface SuppliersTable {
   email: string | null
   phone: string | null
   lead_time_days: Generated<number>
+  regrind_turnaround_days: Generated<number>
   note: Generated<string>
   active: Generated<boolean>
   created_at: Stamp
@@ -42,6 +43,10 @@ export interface CutterTypesTable {
   pack_size: Generated<number>
   service_level: Generated<number>
   lead_time_days_override: number | null
+  min_on_hand: number | null
+  max_on_hand: number | null
+  spares_per_machine: number | null
+  do_not_reorder: Generated<boolean>
   active: Generated<boolean>
   created_at: Stamp
 }
@@ -89,6 +94,9 @@ export interface RegrindBatchItemsTable {
   diameter_after_mm: number | null
   result: 'reground' | 'retired' | null
   cost_cents: Generated<number>
+  received_at: Date | null
+  /** The regrinder's reason when it scrapped the bit instead of resharpening it. */
+  scrap_reason: string | null
 }
 
 export interface ToolingReportsTable {

@@ -34,6 +34,19 @@ export interface CutSharpLivesTable {
   last_cut_at: ByTrigger<Date>
 }
 
+/** Cleanup minutes per part by UTC day, cutter type and material, from the logs that gave them
+ *  (trigger cut_logs_roll_up_cleanup; rebuild_cut_cleanup_roll_up()). */
+export interface CutCleanupDailyTable {
+  shop_id: ByTrigger<number>
+  day: ByTrigger<string>
+  type_id: ByTrigger<number>
+  material_id: ByTrigger<number>
+  /** Logs that gave cleanup minutes. */
+  logs: ByTrigger<number>
+  /** Their cleanup minutes per part, summed. */
+  minutes: ByTrigger<number>
+}
+
 export interface WearFactorAdoptionsTable {
   id: Generated<number>
   shop_id: number

@@ -19,6 +19,9 @@ export interface ShopsTable {
   regrind_life_fraction: Generated<number>
   order_cost_cents: Generated<number>
   holding_rate: Generated<number>
+  /** Integer cents per hour of hand-finishing, for the cost of cleanup minutes; null until set. */
+  labour_rate_cents_per_hour: number | null
+  review_interval_days: Generated<number>
   created_at: CreatedAt
 }
 

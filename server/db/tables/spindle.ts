@@ -19,8 +19,16 @@ export interface MachinesTable {
   description: Generated<string>
   min_rpm: number
   max_rpm: number
-  tool_changer: Generated<boolean>
+  /** Tool-changer pockets; 0 is a manual collet holding one cutter at a time. */
+  pockets: Generated<number>
+  spindle_power_kw: number | null
+  bed_x_mm: number | null
+  bed_y_mm: number | null
   active: Generated<boolean>
+  retired_at: Date | null
+  /** For the program reader's time estimates. */
+  acceleration_mm_s2: Generated<number>
+  rapid_mm_per_min: Generated<number>
   created_at: Stamp
 }
 
@@ -59,6 +67,8 @@ export interface CuttersTable {
   code: string
   status: Generated<CutterStatus>
   machine_id: number | null
+  /** The tool-changer pocket while loaded in a machine with pockets. */
+  pocket: number | null
   diameter_mm: number
   regrind_count: Generated<number>
   life_scale: Generated<number>
@@ -87,6 +97,8 @@ export interface CutLogsTable {
   rpm: number | null
   feed_mm_per_min: number | null
   outcome: CutOutcome
+  /** Hand-finishing minutes per part that the edge cost; null when not given. */
+  cleanup_minutes_per_part: number | null
   note: Generated<string>
   idempotency_key: string
   cut_at: Stamp

@@ -42,6 +42,10 @@ function typeView(t: TypeRow, stock: Stock) {
     leadTimeDaysOverride: t.lead_time_days_override,
     /** The lead time in force: the type's own, else its supplier's. */
     leadTimeDays: t.lead_time_days_override ?? t.supplier_lead_time_days ?? null,
+    minOnHand: t.min_on_hand,
+    maxOnHand: t.max_on_hand,
+    sparesPerMachine: t.spares_per_machine,
+    doNotReorder: t.do_not_reorder,
     active: t.active,
     createdAt: t.created_at,
     stock,
@@ -102,6 +106,10 @@ export function cutterTypeColumns(v: Partial<CutterTypeValue>) {
     pack_size: v.packSize,
     service_level: v.serviceLevel,
     lead_time_days_override: v.leadTimeDaysOverride,
+    min_on_hand: v.minOnHand,
+    max_on_hand: v.maxOnHand,
+    spares_per_machine: v.sparesPerMachine,
+    do_not_reorder: v.doNotReorder,
   }
 }
 
@@ -112,7 +120,7 @@ export function badFields(fields: Record<string, string>): void {
   throw createError({ statusCode: 400, statusMessage: entries.map(([f, m]) => `${f}: ${m}`).join('; '), data: { fields } })
 }
 
-const WHAT = { cutter_types: 'cutter type', suppliers: 'supplier' } as const
+const WHAT = { cutter_types: 'cutter type', suppliers: 'supplier', machines: 'machine', materials: 'material' } as const
 
 /** 409 when another row of the shop has the name, whatever its case. */
 export async function assertNameFree(db: Queryable, table: keyof typeof WHAT, shopId: number, name: string, exceptId?: number) {
@@ -148,7 +156,7 @@ export async function assertSupplier(db: Queryable, shopId: number, supplierId: 
 
 export function supplierQuery(db: Queryable, shopId: number) {
   return db.selectFrom('suppliers as s')
-    .select(['s.id', 's.name', 's.email', 's.phone', 's.lead_time_days as leadTimeDays', 's.note', 's.active', 's.created_at as createdAt',
+    .select(['s.id', 's.name', 's.email', 's.phone', 's.lead_time_days as leadTimeDays', 's.regrind_turnaround_days as regrindTurnaroundDays', 's.note', 's.active', 's.created_at as createdAt',
       (eb) => eb.selectFrom('cutter_types as t').select((e) => e.fn.countAll<number>().as('n'))
         .whereRef('t.shop_id', '=', 's.shop_id').whereRef('t.supplier_id', '=', 's.id').where('t.active', '=', true).as('typeCount')])
     .where('s.shop_id', '=', shopId)

@@ -6,12 +6,13 @@ import type { Db } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
 import { sendMail } from '../platform/mail'
 import { lockOrder } from './order-lines'
-import { orderMail, orderNumber, orderView } from './orders'
+import { orderPdf } from './order-pdf'
+import { orderLetterhead, orderMail, orderNumber, orderView } from './orders'
 import { createCutters } from './receiving'
 
 /**
- * Sends a draft order to its supplier by e-mail. The e-mail goes out inside the transaction, so
- * an order is marked sent only when the mail server took it. Answers the order as the crib sees it.
+ * Sends a draft order to its supplier by e-mail, with the purchase order attached as a PDF. The
+ * e-mail goes out inside the transaction, so an order is marked sent only when the mail server took it. Answers the order as the crib sees it.
  */
 export async function sendOrder(db: Db, user: SessionUser, id: number) {
   await db.transaction().execute(async (tx) => {
@@ -21,11 +22,14 @@ export async function sendOrder(db: Db, user: SessionUser, id: number) {
     if (!view.supplier?.email) {
       throw createError({ statusCode: 400, statusMessage: 'The supplier has no e-mail address. Add one in Suppliers, then send again.' })
     }
-    const shop = await tx.selectFrom('shops').select('name').where('id', '=', user.shopId).executeTakeFirstOrThrow()
-    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: new Date() })
+    const shop = await orderLetterhead(tx, user.shopId)
+    const sentAt = new Date()
+    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: sentAt })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
+    // The PDF the supplier gets is the one the order page downloads from now on.
+    const pdf = await orderPdf({ ...view, status: 'sent', sentAt }, shop)
     try {
-      await sendMail(orderMail(view, shop.name, user.name))
+      await sendMail(orderMail(view, shop, user.name, pdf))
     } catch (err) {
       throw createError({ statusCode: 502, statusMessage: `The mail server did not take the order: ${err instanceof Error ? err.message : err}. Nothing was sent; try again.` })
     }

@@ -40,8 +40,15 @@ export type OrderView = Awaited<ReturnType<typeof orderView>>
 
 export const orderNumber = (id: number) => `PO-${String(id).padStart(5, '0')}`
 
+/** The shop as a purchase order names it: its name and, once given, its postal address. */
+export async function orderLetterhead(db: Queryable, shopId: number) {
+  const shop = await db.selectFrom('shops').select('name').where('id', '=', shopId).executeTakeFirstOrThrow()
+  return { name: shop.name, addressLines: [] as string[] }
+}
 
-export function orderMail(order: OrderView, shopName: string, senderName: string): OutgoingMail {
+
+export function orderMail(order: OrderView, shop: { name: string, addressLines: readonly string[] }, senderName: string, pdf?: Buffer): OutgoingMail {
+  const shopName = shop.name
   const rows = order.lines.map((l) => ({
     part: l.supplierPartNumber || '(no part number)', name: l.typeName, qty: l.quantity, unit: showMoney(l.unitCostCents), total: showMoney(l.totalCents),
   }))
@@ -55,7 +62,9 @@ export function orderMail(order: OrderView, shopName: string, senderName: string
     `Order total: ${showMoney(order.totalCents)}`,
     ...(order.note ? ['', `Note: ${order.note}`] : []),
     '',
-    'Please confirm the delivery date by replying to this e-mail.',
+    `Deliver to: ${[shopName, ...shop.addressLines].join(', ')}`,
+    '',
+    'Please confirm the delivery date by replying to this e-mail. The purchase order is attached as a PDF.',
     '',
     `${senderName}, ${shopName}`,
   ].join('\n')
@@ -68,7 +77,11 @@ ${rows.map((r) => `<tr><td style="${cell}">${r.qty}</td><td style="${cell}">${es
 </table>
 <p><strong>Order total: ${showMoney(order.totalCents)}</strong></p>
 ${order.note ? `<p>Note: ${escapeHtml(order.note)}</p>` : ''}
-<p>Please confirm the delivery date by replying to this e-mail.</p>
+<p>Deliver to: ${escapeHtml([shopName, ...shop.addressLines].join(', '))}</p>
+<p>Please confirm the delivery date by replying to this e-mail. The purchase order is attached as a PDF.</p>
 <p>${escapeHtml(senderName)}, ${escapeHtml(shopName)}</p></body></html>`
-  return { to: order.supplier?.email ?? '', subject: `Purchase order ${order.number} from ${shopName}`, text, html }
+  return {
+    to: order.supplier?.email ?? '', subject: `Purchase order ${order.number} from ${shopName}`, text, html,
+    ...(pdf && { attachments: [{ filename: orderPdfName(order), content: pdf, contentType: 'application/pdf' }] }),
+  }
 }

@@ -4,7 +4,7 @@ import { DUE_STATUSES } from '#shared/kerf/due'
 import { RETIRED_REASON, receiptVerdict, roundMm } from '#shared/kerf/regrind'
 import type { ReceiveBatchBody } from '#shared/schemas/regrind'
 import type { z } from 'zod'
-import type { Db } from '../../db/connect'
+import type { Db, Tx } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
 import { recordEvent, STATUS_SENTENCE } from '../spindle/spindle'
 import { lockRegrindBatch, requireBatchStatus } from './regrind-batches'
@@ -67,82 +67,101 @@ function badItem(index: number, field: string, message: string): never {
 }
 
 /**
- * Receives a batch back from the regrinder, every cutter with its measured diameter. Each one
- * either starts a new sharp life (regrind count + 1, life used 0, life scale = the shop's
- * regrind life fraction) or, when it came back below the type's minimum usable diameter or past
- * its maximum regrinds, is retired instead (shared/kerf/regrind.ts decides). A second receipt of
- * the same batch is a 409.
+ * Receives cutters of a batch back from the regrinder, all at once or in parts: each listed
+ * cutter either came back (its measured diameter decides: a new sharp life with regrind count + 1,
+ * life used 0 and the shop's regrind life fraction, or retired undersize or past its regrinds,
+ * shared/kerf/regrind.ts) or the regrinder scrapped it (retired, with the reason). Cutters not
+ * listed stay out; the batch is received once every cutter is back or written off. Answers the
+ * batch and what this receipt did.
  */
 export async function receiveRegrindBatch(db: Db, user: SessionUser, id: number, items: z.output<typeof ReceiveBatchBody>['items']) {
-  await db.transaction().execute(async (tx) => {
-    const batch = await lockRegrindBatch(tx, user.shopId, id)
-    requireBatchStatus(batch, 'sent', 'received')
-    const shop = await tx.selectFrom('shops').select('regrind_life_fraction').where('id', '=', user.shopId).executeTakeFirstOrThrow()
-    const cutters = await tx.selectFrom('regrind_batch_items as i')
-      .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'i.cutter_id').onRef('c.shop_id', '=', 'i.shop_id'))
-      .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
-      .select(['c.id', 'c.code', 'c.status', 'c.regrind_count', 't.max_regrinds', 't.min_usable_diameter_mm', 't.regrind_cost_cents'])
-      .where('i.shop_id', '=', user.shopId).where('i.batch_id', '=', id)
-      .orderBy('c.id')
-      .forUpdate('c')
-      .execute()
+  const receipt = await db.transaction().execute((tx) => receiveItems(tx, user, id, items))
+  return { batch: await requireRegrindBatchView(db, user.shopId, id), receipt }
+}
 
-    const byId = new Map(cutters.map((c) => [c.id, c]))
-    const seen = new Set<number>()
-    items.forEach((item, index) => {
-      if (!byId.has(item.cutterId)) badItem(index, 'cutterId', 'is not in this batch')
-      if (seen.has(item.cutterId)) badItem(index, 'cutterId', 'is listed twice')
-      seen.add(item.cutterId)
+async function receiveItems(tx: Tx, user: SessionUser, batchId: number, items: z.output<typeof ReceiveBatchBody>['items']) {
+  const shopId = user.shopId
+  const batch = await lockRegrindBatch(tx, shopId, batchId)
+  requireBatchStatus(batch, 'sent', 'received')
+  const shop = await tx.selectFrom('shops').select('regrind_life_fraction').where('id', '=', shopId).executeTakeFirstOrThrow()
+  const cutters = await tx.selectFrom('regrind_batch_items as i')
+    .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'i.cutter_id').onRef('c.shop_id', '=', 'i.shop_id'))
+    .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
+    .select(['c.id', 'c.code', 'c.status', 'c.regrind_count', 'i.result', 't.max_regrinds', 't.min_usable_diameter_mm', 't.regrind_cost_cents'])
+    .where('i.shop_id', '=', shopId).where('i.batch_id', '=', batchId)
+    .orderBy('c.id')
+    .forUpdate('c')
+    .execute()
+
+  const byId = new Map(cutters.map((c) => [c.id, c]))
+  const seen = new Set<number>()
+  items.forEach((item, index) => {
+    const c = byId.get(item.cutterId)
+    if (!c) badItem(index, 'cutterId', 'is not in this batch')
+    if (seen.has(item.cutterId)) badItem(index, 'cutterId', 'is listed twice')
+    if (c.result !== null) badItem(index, 'cutterId', `${c.code} was already received from this batch`)
+    seen.add(item.cutterId)
+  })
+  // A cutter that came back must still be out; one written off may have changed meanwhile.
+  const away = items.filter((i) => i.scrapReason === undefined && byId.get(i.cutterId)!.status !== 'at_regrind').map((i) => byId.get(i.cutterId)!)
+  if (away.length) {
+    throw createError({
+      statusCode: 409,
+      statusMessage: `Some cutters are no longer out for resharpening: ${away.map((c) => `${c.code} ${STATUS_SENTENCE[c.status]}`).join('; ')}. Write them off instead.`,
+      data: { cutterIds: away.map((c) => c.id) },
     })
-    const missing = cutters.filter((c) => !seen.has(c.id))
-    if (missing.length) {
-      throw createError({
-        statusCode: 400,
-        statusMessage: `items: enter the measured diameter of every cutter in the batch; missing ${missing.map((c) => c.code).join(', ')}`,
-        data: { fields: { items: `missing ${missing.map((c) => c.code).join(', ')}` } },
-      })
-    }
-    const away = cutters.filter((c) => c.status !== 'at_regrind')
-    if (away.length) {
-      throw createError({
-        statusCode: 409,
-        statusMessage: `Some cutters are no longer out for resharpening: ${away.map((c) => `${c.code} ${STATUS_SENTENCE[c.status]}`).join('; ')}.`,
-        data: { cutterIds: away.map((c) => c.id) },
-      })
-    }
+  }
 
-    const now = new Date()
-    for (const item of items) {
-      const c = byId.get(item.cutterId)!
-      const diameter = roundMm(item.diameterMm)
-      const verdict = receiptVerdict(diameter, c.regrind_count, { maxRegrinds: c.max_regrinds, minUsableDiameterMm: c.min_usable_diameter_mm })
-      if (verdict.result === 'reground') {
-        await tx.updateTable('cutters').set({
-          status: 'in_crib', machine_id: null, diameter_mm: diameter, regrind_count: c.regrind_count + 1,
-          life_used: 0, life_scale: shop.regrind_life_fraction, minutes_this_life: 0, flagged: null, flagged_at: null, updated_at: now,
-        }).where('shop_id', '=', user.shopId).where('id', '=', c.id).execute()
+  const now = new Date()
+  const outcome = { reground: 0, retired: 0, scrapped: 0 }
+  for (const item of items) {
+    const c = byId.get(item.cutterId)!
+    if (item.scrapReason !== undefined) {
+      if (c.status === 'at_regrind') {
+        await tx.updateTable('cutters').set({ status: 'retired', machine_id: null, retired_reason: 'other', updated_at: now })
+          .where('shop_id', '=', shopId).where('id', '=', c.id).execute()
         await recordEvent(tx, {
-          shopId: user.shopId, cutterId: c.id, kind: 'reground', from: 'at_regrind', to: 'in_crib', actorId: user.id,
-          note: `Reground to ${diameter.toFixed(3)} mm (batch ${id})`,
-        })
-      } else {
-        await tx.updateTable('cutters').set({
-          status: 'retired', machine_id: null, diameter_mm: diameter, retired_reason: RETIRED_REASON[verdict.cause!], updated_at: now,
-        }).where('shop_id', '=', user.shopId).where('id', '=', c.id).execute()
-        await recordEvent(tx, {
-          shopId: user.shopId, cutterId: c.id, kind: 'retired', from: 'at_regrind', to: 'retired', actorId: user.id,
-          note: verdict.cause === 'undersize'
-            ? `Came back at ${diameter.toFixed(3)} mm, below the minimum usable ${c.min_usable_diameter_mm.toFixed(3)} mm (batch ${id})`
-            : `Came back from a regrind past the ${c.max_regrinds} this type allows (batch ${id})`,
+          shopId, cutterId: c.id, kind: 'retired', from: 'at_regrind', to: 'retired', actorId: user.id,
+          note: `Scrapped by the regrinder: ${item.scrapReason} (batch ${batchId})`,
         })
       }
-      await tx.updateTable('regrind_batch_items').set({
-        diameter_after_mm: diameter, result: verdict.result, cost_cents: item.costCents ?? c.regrind_cost_cents,
-      }).where('shop_id', '=', user.shopId).where('batch_id', '=', id).where('cutter_id', '=', c.id).execute()
+      await tx.updateTable('regrind_batch_items').set({ result: 'retired', scrap_reason: item.scrapReason, cost_cents: item.costCents ?? 0, received_at: now })
+        .where('shop_id', '=', shopId).where('batch_id', '=', batchId).where('cutter_id', '=', c.id).execute()
+      outcome.scrapped++
+      continue
     }
+    const diameter = roundMm(item.diameterMm!)
+    const verdict = receiptVerdict(diameter, c.regrind_count, { maxRegrinds: c.max_regrinds, minUsableDiameterMm: c.min_usable_diameter_mm })
+    if (verdict.result === 'reground') {
+      await tx.updateTable('cutters').set({
+        status: 'in_crib', machine_id: null, diameter_mm: diameter, regrind_count: c.regrind_count + 1,
+        life_used: 0, life_scale: shop.regrind_life_fraction, minutes_this_life: 0, flagged: null, flagged_at: null, updated_at: now,
+      }).where('shop_id', '=', shopId).where('id', '=', c.id).execute()
+      await recordEvent(tx, {
+        shopId, cutterId: c.id, kind: 'reground', from: 'at_regrind', to: 'in_crib', actorId: user.id,
+        note: `Reground to ${diameter.toFixed(3)} mm (batch ${batchId})`,
+      })
+      outcome.reground++
+    } else {
+      await tx.updateTable('cutters').set({
+        status: 'retired', machine_id: null, diameter_mm: diameter, retired_reason: RETIRED_REASON[verdict.cause!], updated_at: now,
+      }).where('shop_id', '=', shopId).where('id', '=', c.id).execute()
+      await recordEvent(tx, {
+        shopId, cutterId: c.id, kind: 'retired', from: 'at_regrind', to: 'retired', actorId: user.id,
+        note: verdict.cause === 'undersize'
+          ? `Came back at ${diameter.toFixed(3)} mm, below the minimum usable ${c.min_usable_diameter_mm.toFixed(3)} mm (batch ${batchId})`
+          : `Came back from a regrind past the ${c.max_regrinds} this type allows (batch ${batchId})`,
+      })
+      outcome.retired++
+    }
+    await tx.updateTable('regrind_batch_items').set({
+      diameter_after_mm: diameter, result: verdict.result, cost_cents: item.costCents ?? c.regrind_cost_cents, received_at: now,
+    }).where('shop_id', '=', shopId).where('batch_id', '=', batchId).where('cutter_id', '=', c.id).execute()
+  }
+  const stillOut = cutters.filter((c) => c.result === null && !seen.has(c.id)).length
+  if (!stillOut) {
     await tx.updateTable('regrind_batches').set({ status: 'received', received_at: now })
-      .where('shop_id', '=', user.shopId).where('id', '=', id)
-      .execute()
-  })
-  return requireRegrindBatchView(db, user.shopId, id)
+      .where('shop_id', '=', shopId).where('id', '=', batchId).execute()
+  }
+  return { ...outcome, stillOut }
 }

@@ -3,20 +3,23 @@
 // is shared/kerf/reorder.ts.
 import { sql } from 'kysely'
 import { reorderFigures } from '#shared/kerf/reorder'
+import { reorderFormulas, reorderSentence } from '#shared/kerf/reorder-words'
 import type { Queryable } from '../../db/connect'
 
 export const DEMAND_WINDOW_DAYS = 90
 const DEFAULT_LEAD_TIME_DAYS = 7
+const DAY_MS = 86_400_000
 
 export async function reorderRows(db: Queryable, shopId: number, now = new Date()) {
   const windowStart = new Date(now.getTime() - DEMAND_WINDOW_DAYS * 86_400_000)
-  const [shop, types, usage, stock, orders] = await Promise.all([
-    db.selectFrom('shops').select(['regrind_life_fraction', 'order_cost_cents', 'holding_rate'])
+  const [shop, types, usage, stock, orders, atRegrind, machines] = await Promise.all([
+    db.selectFrom('shops').select(['regrind_life_fraction', 'order_cost_cents', 'holding_rate', 'review_interval_days'])
       .where('id', '=', shopId).executeTakeFirstOrThrow(),
     db.selectFrom('cutter_types as t')
       .leftJoin('suppliers as s', (j) => j.onRef('s.id', '=', 't.supplier_id').onRef('s.shop_id', '=', 't.shop_id'))
       .select(['t.id', 't.name', 't.supplier_id', 's.name as supplier_name', 's.lead_time_days', 't.lead_time_days_override',
-        't.max_regrinds', 't.service_level', 't.unit_cost_cents', 't.pack_size', 't.rated_life_minutes'])
+        't.max_regrinds', 't.service_level', 't.unit_cost_cents', 't.pack_size', 't.rated_life_minutes',
+        't.min_on_hand', 't.max_on_hand', 't.spares_per_machine', 't.do_not_reorder'])
       .where('t.shop_id', '=', shopId).where('t.active', '=', true)
       .orderBy('t.name').execute(),
     // Lives used per type and UTC day, in new-cutter lives (minutes × wear / rated life).
@@ -47,6 +50,26 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
       ])
       .where('pl.shop_id', '=', shopId)
       .groupBy('pl.type_id').execute(),
+    // Cutters out at the regrinder that should come back sharp (regrinds left), with the day
+    // their batch is expected back: sent + the supplier's turnaround.
+    db.selectFrom('regrind_batch_items as i')
+      .innerJoin('regrind_batches as b', (j) => j.onRef('b.id', '=', 'i.batch_id').onRef('b.shop_id', '=', 'i.shop_id'))
+      .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'i.cutter_id').onRef('c.shop_id', '=', 'i.shop_id'))
+      .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
+      .leftJoin('suppliers as s', (j) => j.onRef('s.id', '=', 'b.supplier_id').onRef('s.shop_id', '=', 'b.shop_id'))
+      .select(['c.type_id', 'b.sent_at', sql<number>`coalesce(s.regrind_turnaround_days, 10)`.as('turnaround')])
+      .where('i.shop_id', '=', shopId).where('b.status', '=', 'sent').where('i.result', 'is', null)
+      .where('c.status', '=', 'at_regrind')
+      .whereRef('c.regrind_count', '<', 't.max_regrinds')
+      .execute(),
+    // Machines that use each type: cut with one in the demand window or hold one now.
+    db.selectFrom('cut_logs as l')
+      .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'l.cutter_id').onRef('c.shop_id', '=', 'l.shop_id'))
+      .select(['c.type_id', 'l.machine_id'])
+      .where('l.shop_id', '=', shopId).where('l.cut_at', '>', windowStart).where('l.machine_id', 'is not', null)
+      .union((eb) => eb.selectFrom('cutters').select(['type_id', 'machine_id'])
+        .where('shop_id', '=', shopId).where('status', '=', 'in_spindle'))
+      .execute(),
   ])
 
   const firstDay = Math.floor(windowStart.getTime() / 86_400_000) + 1
@@ -62,6 +85,10 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
     }
     const leadTimeDays = t.lead_time_days_override ?? t.lead_time_days ?? DEFAULT_LEAD_TIME_DAYS
     const order = ordersBy.get(t.id)
+    const horizon = now.getTime() + leadTimeDays * DAY_MS
+    const comingBack = atRegrind.filter((r) => r.type_id === t.id && r.sent_at
+      && r.sent_at.getTime() + Number(r.turnaround) * DAY_MS <= horizon).length
+    const machinesUsing = new Set(machines.filter((m) => m.type_id === t.id).map((m) => m.machine_id)).size
     const figures = reorderFigures({
       dailyLives: daily,
       maxRegrinds: t.max_regrinds,
@@ -74,7 +101,19 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
       holdingRate: shop.holding_rate,
       available: stockBy.get(t.id) ?? 0,
       onOrder: Number(order?.on_order ?? 0),
+      atRegrind: comingBack,
+      reviewDays: shop.review_interval_days,
+      minOnHand: t.min_on_hand,
+      maxOnHand: t.max_on_hand,
+      sparesPerMachine: t.spares_per_machine,
+      machinesUsing,
+      doNotReorder: t.do_not_reorder,
     })
+    const words = {
+      ...figures, leadTimeDays, reviewDays: shop.review_interval_days, serviceLevel: t.service_level, packSize: t.pack_size,
+      available: stockBy.get(t.id) ?? 0, onOrder: Number(order?.on_order ?? 0), maxOnHand: t.max_on_hand,
+      sparesPerMachine: t.spares_per_machine, machinesUsing, doNotReorder: t.do_not_reorder,
+    }
     return {
       typeId: t.id,
       typeName: t.name,
@@ -87,7 +126,15 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
       available: stockBy.get(t.id) ?? 0,
       onOrder: Number(order?.on_order ?? 0),
       inDraft: Number(order?.in_draft ?? 0),
+      reviewDays: shop.review_interval_days,
+      minOnHand: t.min_on_hand,
+      maxOnHand: t.max_on_hand,
+      sparesPerMachine: t.spares_per_machine,
+      machinesUsing,
+      doNotReorder: t.do_not_reorder,
       ...figures,
+      explanation: reorderSentence(words),
+      formulas: reorderFormulas(words),
     }
   })
 }

@@ -1,49 +1,58 @@
 // The morning tooling report: what to order, what to send out for resharpening and what to
-// retire, built from the same code as the crib's reorder and resharpening pages.
+// retire, and the batches overdue at the regrinder, built from the same code as the crib's
+// reorder and resharpening pages.
 import { showMoney } from '#shared/kerf/money'
 import type { Queryable } from '../../db/connect'
 import type { OutgoingMail } from '../platform/mail'
 
 export interface ToolingReport {
   isEmpty: boolean
-  counts: { order: number, resharpen: number, retire: number }
+  counts: { order: number, resharpen: number, retire: number, overdue: number }
   mail: Omit<OutgoingMail, 'to'>
 }
 
 const pct = (x: number) => `${Math.round(x * 100)} %`
 
 export async function buildToolingReport(db: Queryable, shopId: number, opts: { baseUrl: string, now: Date, localDate: string }): Promise<ToolingReport> {
-  const [shop, reorder, due] = await Promise.all([
+  const [shop, reorder, due, batches] = await Promise.all([
     db.selectFrom('shops').select('name').where('id', '=', shopId).executeTakeFirstOrThrow(),
     reorderRows(db, shopId, opts.now),
     dueCutters(db, shopId),
+    regrindBatchList(db, shopId, opts.now),
   ])
+  const overdue = batches.filter((b) => b.age?.overdue)
   const order = reorder.filter((r) => r.belowReorderPoint)
   const resharpen = due.cutters.filter((c) => c.action === 'resharpen')
   const retire = due.cutters.filter((c) => c.action === 'retire')
-  const counts = { order: order.length, resharpen: resharpen.length, retire: retire.length }
-  const isEmpty = !order.length && !resharpen.length && !retire.length
+  const counts = { order: order.length, resharpen: resharpen.length, retire: retire.length, overdue: overdue.length }
+  const isEmpty = !order.length && !resharpen.length && !retire.length && !overdue.length
+  const lateWords = (b: (typeof overdue)[number]) => `${b.counts.out} of ${b.counts.items} still out, sent ${b.age!.ageDays} days ago to ${b.supplier?.name ?? 'the regrinder'}, `
+    + `${b.age!.daysOverdue ? `${b.age!.daysOverdue} days` : 'just'} past the ${b.age!.turnaroundDays}-day turnaround`
   const base = opts.baseUrl
   const where = (c: { machineName: string | null }) => c.machineName ?? 'crib'
   const why = (c: { reason: string, lifeUsed: number }) => (c.reason === 'flagged_dull' ? 'flagged dull' : `${pct(c.lifeUsed)} of life used`)
 
   const subject = isEmpty
     ? `Tooling report ${opts.localDate}: all clear`
-    : `Tooling report ${opts.localDate}: order ${counts.order}, resharpen ${counts.resharpen}, retire ${counts.retire}`
+    : `Tooling report ${opts.localDate}: order ${counts.order}, resharpen ${counts.resharpen}, retire ${counts.retire}${overdue.length ? `, ${overdue.length} overdue at the regrinder` : ''}`
 
   const text: string[] = [`${shop.name}: tooling report for ${opts.localDate}`, '']
   if (isEmpty) text.push('Nothing to order, resharpen or retire today.', '')
   if (order.length) {
     text.push(`ORDER (${order.length}) - ${base}/crib/reorder`)
     for (const r of order) {
-      text.push(`- ${r.suggestedQty} x ${r.typeName} from ${r.supplierName ?? 'no supplier set'} (${showMoney(r.suggestedQty * r.unitCostCents)}): `
-        + `${r.available} in stock + ${r.onOrder} on order is at or below the reorder point ${r.reorderPoint.toFixed(1)}`)
+      text.push(`- ${r.suggestedQty} x ${r.typeName} from ${r.supplierName ?? 'no supplier set'} (${showMoney(r.suggestedQty * r.unitCostCents)}): ${r.explanation}`)
     }
     text.push('')
   }
   if (resharpen.length) {
     text.push(`SEND OUT FOR RESHARPENING (${resharpen.length}) - ${base}/crib/regrind`)
     for (const c of resharpen) text.push(`- ${c.code} ${c.typeName}, in ${where(c)}: ${why(c)} ${base}/c/${c.code}`)
+    text.push('')
+  }
+  if (overdue.length) {
+    text.push(`OVERDUE AT THE REGRINDER (${overdue.length}) - ${base}/crib/regrind`)
+    for (const b of overdue) text.push(`- Batch ${b.id}: ${lateWords(b)}`)
     text.push('')
   }
   if (retire.length) {
@@ -69,7 +78,10 @@ ${rows.map((r) => `<tr>${r.map((cell) => `<td style="${td}">${cell}</td>`).join(
 ${isEmpty ? '<p style="font-size:17px">Nothing to order, resharpen or retire today.</p>' : ''}
 ${section(`Order (${order.length})`, `${base}/crib/reorder`, ['Cutter type', 'Supplier', 'Order', 'Why'], order.map((r) => [
   escapeHtml(r.typeName), escapeHtml(r.supplierName ?? 'no supplier set'), `<strong>${r.suggestedQty}</strong><br>${showMoney(r.suggestedQty * r.unitCostCents)}`,
-  `${r.available} in stock + ${r.onOrder} on order, reorder point ${r.reorderPoint.toFixed(1)} (${r.dailyDemand.toFixed(2)} a day over ${r.leadTimeDays} days' lead time)`,
+  escapeHtml(r.explanation),
+]))}
+${section(`Overdue at the regrinder (${overdue.length})`, `${base}/crib/regrind`, ['Batch', 'Why'], overdue.map((b) => [
+  `Batch ${b.id}`, escapeHtml(lateWords(b)),
 ]))}
 ${section(`Send out for resharpening (${resharpen.length})`, `${base}/crib/regrind`, ['Cutter', 'Where', 'Why'], resharpen.map((c) => [
   `${link(`${base}/c/${c.code}`, c.code)}<br>${escapeHtml(c.typeName)}`, escapeHtml(where(c)), escapeHtml(why(c)),

@@ -11,6 +11,7 @@ export interface OutgoingMail {
   html: string
   /** A fixed Message-ID lets mail systems drop a copy sent twice. */
   messageId?: string
+  attachments?: Array<{ filename: string, content: Buffer, contentType: string }>
 }
 
 function useTransport(): { transport: Transporter, from: string } {

@@ -15,6 +15,7 @@ export async function shopSettings(db: Queryable, shopId: number) {
     orderCostCents: s.order_cost_cents,
     holdingRate: s.holding_rate,
     shiftMinutes: s.shift_minutes,
+    labourRateCentsPerHour: s.labour_rate_cents_per_hour,
   }
 }
 export type ShopSettings = Awaited<ReturnType<typeof shopSettings>>

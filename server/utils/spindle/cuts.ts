@@ -22,7 +22,7 @@ import { eventRow } from './spindle'
 type CutLogInput = z.output<typeof CutLogBody>
 
 const LOG_COLUMNS = ['id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
-  'rpm', 'feed_mm_per_min', 'outcome', 'note', 'idempotency_key', 'cut_at'] as const
+  'rpm', 'feed_mm_per_min', 'outcome', 'cleanup_minutes_per_part', 'note', 'idempotency_key', 'cut_at'] as const
 // Typed, because a union of selects gives untyped parameters the type text.
 const EVENT_TYPES = {
   shop_id: 'integer', cutter_id: 'integer', kind: 'text', from_status: 'text', to_status: 'text', machine_id: 'integer',
@@ -98,12 +98,13 @@ async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInpu
     // The log (its trigger keeps the roll-ups) and the events, only when the cutter row was updated.
     .with('log', (db) => db.insertInto('cut_logs').columns([
       'shop_id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
-      'regrind_count', 'rpm', 'feed_mm_per_min', 'outcome', 'note', 'idempotency_key', 'cut_at',
+      'regrind_count', 'rpm', 'feed_mm_per_min', 'outcome', 'cleanup_minutes_per_part', 'note', 'idempotency_key', 'cut_at',
     ]).expression((eb) => eb.selectFrom('cutter').select([
       eb.val(user.shopId).as('shop_id'), eb.val(id).as('cutter_id'), eb.val(machineId).as('machine_id'), eb.val(user.id).as('operator_id'),
       eb.val(cutter.material_id!).as('material_id'), eb.val(body.minutes).as('minutes'), eb.val(cutter.wear_factor!).as('wear_factor'),
       eb.val(added).as('life_added'), eb.val(cutter.regrind_count).as('regrind_count'), eb.val(body.rpm ?? null).as('rpm'),
-      eb.val(body.feedMmPerMin ?? null).as('feed_mm_per_min'), eb.val(body.outcome).as('outcome'), eb.val(body.note ?? '').as('note'),
+      eb.val(body.feedMmPerMin ?? null).as('feed_mm_per_min'), eb.val(body.outcome).as('outcome'),
+      eb.val(body.cleanupMinutesPerPart ?? null).as('cleanup_minutes_per_part'), eb.val(body.note ?? '').as('note'),
       eb.val(body.idempotencyKey).as('idempotency_key'), eb.val(cutAt).as('cut_at'),
     ])).returning(LOG_COLUMNS))
     .with('event', (db) => db.insertInto('cutter_events').columns(EVENT_COLUMNS).expression((eb) => {
@@ -150,7 +151,7 @@ export async function logCut(db: Db, user: SessionUser, cutterId: number, body: 
     log: {
       id: l.id, cutterId: l.cutter_id, machineId: l.machine_id, operatorId: l.operator_id, materialId: l.material_id,
       minutes: l.minutes, wearFactor: l.wear_factor, lifeAdded: l.life_added, rpm: l.rpm, feedMmPerMin: l.feed_mm_per_min,
-      outcome: l.outcome, note: l.note, idempotencyKey: l.idempotency_key, cutAt: l.cut_at,
+      outcome: l.outcome, cleanupMinutesPerPart: l.cleanup_minutes_per_part, note: l.note, idempotencyKey: l.idempotency_key, cutAt: l.cut_at,
     },
     lifeUsed: result.totals.life_used,
     minutesTotal: result.totals.minutes_total,

@@ -5,7 +5,7 @@ import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { describe, expect, it } from 'vitest'
 import CutLogForm from '~/components/spindle/CutLogForm.vue'
 
-const cutter = { id: 7, code: 'K7Q2M9P', machine: null, type: { id: 3 }, usual: { shiftMinutes: 720, longestCutMinutes: 45 } }
+const cutter = { id: 7, code: 'K7Q2M9P', machine: null, type: { id: 3, profile: 'square_end' as const }, usual: { shiftMinutes: 720, longestCutMinutes: 45 } }
 const materials = [{ id: 1, name: 'MDF', family: 'sheet_goods' as const, wearFactor: 1, common: true }]
 
 async function form() {

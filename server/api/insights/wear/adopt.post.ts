@@ -1,7 +1,9 @@
 // Adopt learned wear factors: the chosen materials' factors become the fit's figures (over the
 // same range the page showed), so life used counts with them from now on. Past cut logs keep
-// the factor they were written with; each change is recorded with who and when.
+// the factor they were written with; each change is recorded with who and when. A figure whose
+// 90 % interval is wide is only adopted when the body confirms it (409 otherwise, naming them).
 import { resolveRange } from '#shared/kerf/date-range'
+import { isWide } from '#shared/kerf/wear-model'
 import { AdoptWearBody } from '#shared/schemas/insights'
 
 // The materials table's own bounds (wear_factor > 0 and <= 100), at its three decimals.
@@ -16,13 +18,21 @@ export default defineEventHandler(async (event) => {
   const adopted = await transaction(async (tx) => {
     // Lock the shop's materials so two adoptions cannot cross.
     await tx.selectFrom('materials').select('id').where('shop_id', '=', user.shopId).forUpdate().execute()
-    const fit = new Map((await learnedWear(tx, user.shopId, range)).map((m) => [m.materialId, m]))
+    const fit = new Map((await learnedWear(tx, user.shopId, range)).materials.map((m) => [m.materialId, m]))
     const missing = body.materialIds.filter((id) => !fit.has(id))
     if (missing.length) notFound('material')
     const changes = [...new Set(body.materialIds)].map((id) => fit.get(id)!)
       .filter((m) => m.lives > 0)
       .map((m) => ({ ...m, to: Math.min(CEILING, Math.max(FLOOR, Math.round(m.learnedFactor * 1000) / 1000)) }))
       .filter((m) => m.to !== m.startingFactor)
+    const wide = changes.filter((m) => isWide(m.interval))
+    if (wide.length && !body.confirmWide) {
+      throw createError({
+        statusCode: 409,
+        statusMessage: `The learned ${wide.length === 1 ? 'factor' : 'factors'} for ${wide.map((m) => `${m.name} (${m.interval ? `${m.interval[0]} to ${m.interval[1]}` : 'no interval'})`).join(', ')} ${wide.length === 1 ? 'is' : 'are'} uncertain: confirm to adopt anyway.`,
+        data: { wide: wide.map((m) => ({ materialId: m.materialId, name: m.name, interval: m.interval })) },
+      })
+    }
     for (const m of changes) {
       await tx.updateTable('materials').set({ wear_factor: m.to })
         .where('shop_id', '=', user.shopId).where('id', '=', m.materialId).execute()
@@ -39,7 +49,7 @@ export default defineEventHandler(async (event) => {
   return {
     adopted,
     message: adopted.length
-      ? `New wear factors for ${adopted.map((a) => a.name).join(', ')} count from now on.${skipped ? ` ${skipped} left as they were: no finished life backs them, or nothing changed.` : ''}`
-      : 'Nothing changed: no finished life backs those materials, or their factors already match.',
+      ? `New wear factors for ${adopted.map((a) => a.name).join(', ')} count from now on.${skipped ? ` ${skipped} left as they were: no life backs them, or nothing changed.` : ''}`
+      : 'Nothing changed: no life backs those materials, or their factors already match (the reference material never changes).',
   }
 })
