@@ -1,10 +1,15 @@
 // Kerfbook: the Nuxt application. Client folders sit at the project root (srcDir '.').
+import { EARLY_TAP_SCRIPT } from './utils/early-tap'
+
+/** A new one each build, so that phones fetch the app shell again with the new code. */
+const SHELL_REVISION = Date.now().toString(36)
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt'],
   css: [
     '@fontsource/atkinson-hyperlegible/400.css',
     '@fontsource/atkinson-hyperlegible/700.css',
@@ -22,7 +27,13 @@ export default defineNuxtConfig({
         { name: 'theme-color', content: '#12302b' },
         { name: 'description', content: 'Tooling crib and cutter-life tracker for CNC routing shops.' },
       ],
-      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+      link: [
+        { rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' },
+        { rel: 'apple-touch-icon', href: '/icons/apple-touch-icon-180.png' },
+        { rel: 'manifest', href: '/manifest.webmanifest' },
+      ],
+      // Keeps a tap on the cutter page's buttons made before the page is interactive (utils/early-tap.ts).
+      script: [{ innerHTML: EARLY_TAP_SCRIPT, tagPosition: 'head' }],
     },
   },
   runtimeConfig: {
@@ -53,8 +64,49 @@ export default defineNuxtConfig({
     session: { name: 'kerfbook-session', maxAge: 60 * 60 * 24 * 14, cookie: { sameSite: 'lax', secure: true, httpOnly: true } },
     public: { baseUrl: '' },
   },
+  routeRules: {
+    // The app shell the service worker keeps: the app with no page data, which boots on whatever
+    // address the phone opened and shows what it keeps offline.
+    '/offline-shell': { ssr: false },
+    // Build assets carry their content's hash in their names: they never change, so keep them a year.
+    '/_nuxt/**': { headers: { 'cache-control': 'public, max-age=31536000, immutable' } },
+    // Phones look for a new service worker on every visit.
+    '/sw.js': { headers: { 'cache-control': 'no-cache' } },
+  },
+  pwa: {
+    strategies: 'injectManifest',
+    srcDir: 'service-worker',
+    filename: 'sw.ts',
+    registerType: 'autoUpdate',
+    injectRegister: false,
+    manifest: {
+      name: 'Kerfbook',
+      short_name: 'Kerfbook',
+      description: 'Tooling crib and cutter-life tracker for CNC routing shops.',
+      lang: 'en',
+      start_url: '/',
+      scope: '/',
+      display: 'standalone',
+      background_color: '#f6f4ee',
+      theme_color: '#12302b',
+      icons: [
+        { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+        { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+        { src: '/icons/maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+      ],
+    },
+    injectManifest: {
+      globPatterns: ['_nuxt/**/*.{js,css,woff2}', 'favicon.svg', 'icons/*.png'],
+      additionalManifestEntries: [{ url: '/offline-shell', revision: SHELL_REVISION }],
+    },
+    client: { installPrompt: false },
+    devOptions: { enabled: false },
+  },
   nitro: {
     experimental: { tasks: true },
+    // Static files are stored brotli- and gzip-compressed beside the originals and sent as the
+    // browser accepts; the pages and JSON made per request are compressed by server/plugins/compression.ts.
+    compressPublicAssets: { gzip: true, brotli: true },
     // server/utils has a folder per room; Nitro auto-imports only the top level of server/utils,
     // so each room is listed (platform: db, auth, validation, mail…; spindle; crib; insights).
     imports: {

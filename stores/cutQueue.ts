@@ -1,9 +1,9 @@
-// The offline cut-log queue as shared client state: the cutter page submits through it, the
-// layout's badge counts what waits. The queue itself (utils/cut-queue.ts) keeps it in localStorage.
+// The offline queue as shared client state: the cutter page logs cuts, loads and returns through
+// it, the layout's badge counts what waits. The queue itself (utils/cut-queue.ts) keeps it in localStorage.
 import { defineStore } from 'pinia'
 import {
-  createCutQueue, createFetchSender, CUT_QUEUE_STORAGE_KEY, memoryStorage,
-  type CutBody, type CutQueue, type KeyValueStorage, type QueuedCut, type SubmitResult,
+  createCutQueue, createFetchSender, CUT_QUEUE_STORAGE_KEY, memoryStorage, newIdempotencyKey,
+  type ActionBody, type CutBody, type CutQueue, type KeyValueStorage, type QueuedAction, type QueuedCut, type QueuedItem, type SubmitResult,
 } from '~/utils/cut-queue'
 
 /** How often waiting logs are tried again while any wait. */
@@ -16,11 +16,20 @@ export interface NewCut {
   body: CutBody
 }
 
+export interface NewAction {
+  kind: 'load' | 'return'
+  cutterId: number
+  cutterCode: string
+  label: string
+  /** The body the online form sends; the action's key is added here. */
+  body: Record<string, unknown>
+}
+
 export interface SentCut { key: string, cutterId: number, cutterCode: string, data: unknown }
 
 export const useCutQueueStore = defineStore('cutQueue', () => {
   const { user } = useUserSession()
-  const all = ref<QueuedCut[]>([])
+  const all = ref<QueuedItem[]>([])
   /** The last log the server took in the background, for pages to refresh what they show. */
   const lastSent = ref<SentCut | null>(null)
   // Logs whose sender is waiting for the answer itself: their outcome is told to that caller.
@@ -86,10 +95,18 @@ export const useCutQueueStore = defineStore('cutQueue', () => {
     }
   }
 
-  async function submit(cut: NewCut): Promise<SubmitResult> {
+  async function submit(cut: NewCut): Promise<SubmitResult<QueuedCut>> {
     const ownerId = user.value?.id
     if (!ownerId) throw new Error('Sign in to log a cut.')
-    return holding(cut.body.idempotencyKey, () => start().submit({ ...cut, ownerId }))
+    return holding(cut.body.idempotencyKey, () => start().submit({ ...cut, ownerId })) as Promise<SubmitResult<QueuedCut>>
+  }
+
+  /** A load or return, sent now or, without a connection, after the items before it. */
+  async function submitAction(action: NewAction): Promise<SubmitResult<QueuedAction>> {
+    const ownerId = user.value?.id
+    if (!ownerId) throw new Error('Sign in first.')
+    const body: ActionBody = { ...action.body, idempotencyKey: newIdempotencyKey() }
+    return holding(body.idempotencyKey, () => start().submit({ ...action, body, ownerId })) as Promise<SubmitResult<QueuedAction>>
   }
 
   async function holding<T>(key: string, send: () => Promise<T>): Promise<T> {
@@ -101,9 +118,11 @@ export const useCutQueueStore = defineStore('cutQueue', () => {
     }
   }
 
-  const resubmit = (key: string, change?: { body: CutBody, materialName: string }) => holding(key, () => start().resubmit(key, change))
+  /** A refused item sent again (a cut log with the operator's corrections). */
+  const resubmit = (key: string, change?: { body: CutBody, materialName: string }) =>
+    holding(key, () => start().resubmit(key, change)) as Promise<SubmitResult<QueuedCut>>
   const discard = (key: string) => start().discard(key)
   const flush = () => start().flush()
 
-  return { all, mine, waiting, failed, lastSent, forCutter, start, submit, resubmit, discard, flush }
+  return { all, mine, waiting, failed, lastSent, forCutter, start, submit, submitAction, resubmit, discard, flush }
 })

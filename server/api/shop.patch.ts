@@ -11,6 +11,7 @@ export default defineEventHandler(async (event) => {
     ...(b.reportRecipients !== undefined && { report_recipients: b.reportRecipients?.length ? b.reportRecipients : null }),
     ...(b.dailyAllClear !== undefined && { daily_all_clear: b.dailyAllClear }),
     ...(b.lifeThreshold !== undefined && { life_threshold: b.lifeThreshold }),
+    ...(b.shiftMinutes !== undefined && { shift_minutes: b.shiftMinutes }),
     ...(b.regrindLifeFraction !== undefined && { regrind_life_fraction: b.regrindLifeFraction }),
     ...(b.orderCostCents !== undefined && { order_cost_cents: b.orderCostCents }),
     ...(b.holdingRate !== undefined && { holding_rate: b.holdingRate }),

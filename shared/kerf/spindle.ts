@@ -21,3 +21,24 @@ export type FlagKind = (typeof FLAG_KINDS)[number]
 
 /** The largest photo a flag may carry. */
 export const PHOTO_MAX_BYTES = 8 * 1024 * 1024
+
+/** What a new cut log's minutes are weighed against: the shop's shift, and this type's longest logged cut. */
+export interface UsualMinutes { shiftMinutes: number, longestCutMinutes: number | null }
+
+/** How many times the type's longest logged cut a new one may be before the form asks (common practice, no source). */
+export const UNUSUAL_MULTIPLE = 4
+
+/**
+ * Why these minutes are far from usual, in a sentence, or null when they are not: more than the
+ * shop's shift, or more than four times the longest cut logged on this type. A slip of the thumb
+ * (600 for 60) would otherwise use up a cutter's life in one log.
+ */
+export function unusualMinutes(minutes: number, usual: UsualMinutes): string | null {
+  const hours = (m: number) => `${Number((m / 60).toFixed(1))} h`
+  if (minutes > usual.shiftMinutes) return `That is longer than the shop's shift of ${hours(usual.shiftMinutes)}.`
+  const longest = usual.longestCutMinutes
+  if (longest && longest > 0 && minutes > UNUSUAL_MULTIPLE * longest) {
+    return `That is more than ${UNUSUAL_MULTIPLE} times the longest cut logged on this type of bit (${Number(longest.toFixed(1))} min).`
+  }
+  return null
+}

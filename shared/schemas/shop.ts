@@ -20,6 +20,8 @@ export const ShopUpdateBody = z.object({
   regrindLifeFraction: z.number({ error: 'enter a percentage like 80' }).min(REGRIND_FRACTION_FLOOR, { error: `must be at least ${REGRIND_FRACTION_FLOOR * 100} %: a regrind that gives back less is not worth buying` })
     .max(1, { error: 'at most 100 %' }).optional(),
   orderCostCents: z.number({ error: 'enter an amount like 25.00' }).int().min(0).max(10_000_000, { error: 'must be at most 100000.00' }).optional(),
+  // The cut form asks before logging more minutes than one shift holds.
+  shiftMinutes: z.number().int({ error: 'must be whole minutes' }).min(60, { error: 'must be at least 60 minutes' }).max(1440, { error: 'at most 1440 minutes (a day)' }).optional(),
   // Cents per hour of hand-finishing, for the cost of cleanup minutes; null: not set.
   labourRateCentsPerHour: z.number({ error: 'enter the labour rate' }).int({ error: 'must be whole cents' })
     .min(0, { error: 'must be 0 or more' }).max(1_000_000, { error: 'must be at most 10,000.00 an hour' }).nullable().optional(),

@@ -16,16 +16,23 @@ const outcomeWords = CUT_OUTCOMES.map((o) => OUTCOME_LABELS[o].toLowerCase())
 
 export const CutterIdParams = z.object({ id: z.coerce.number().int().positive().max(MAX_ID) })
 
+/** The phone's key for one action, the same on every attempt, so that the server does it once. */
+const IdempotencyKey = z.string().min(8, { error: 'must be 8 to 100 characters' }).max(100, { error: 'must be 8 to 100 characters' })
+
 export const LoadBody = z.object({
   machineId: z.number({ error: 'choose a machine' }).int().positive().max(MAX_ID),
+  idempotencyKey: IdempotencyKey.optional(),
   /** The bit seen in a one-bit machine, to go back to the crib in the same step ("return that one and load this"). */
   returnCutterId: z.number({ error: 'must be a cutter id' }).int().positive().max(MAX_ID).optional(),
   /** The tool-changer pocket, for a machine with pockets (the lowest free one when not given). */
   pocket: z.number({ error: 'must be a pocket number' }).int({ error: 'must be a whole number' }).min(1, { error: 'must be 1 to 99' }).max(99, { error: 'must be 1 to 99' }).optional(),
 })
 
+/** Returning needs nothing but, from the phone's queue, its key. */
+export const ReturnBody = z.object({ idempotencyKey: IdempotencyKey.optional() }).optional()
+
 export const CutLogBody = z.object({
-  idempotencyKey: z.string().min(8, { error: 'must be 8 to 100 characters' }).max(100, { error: 'must be 8 to 100 characters' }),
+  idempotencyKey: IdempotencyKey,
   materialId: z.number({ error: 'choose a material' }).int().positive().max(MAX_ID),
   minutes: z.number({ error: 'enter the minutes cut' })
     // Stored to 0.01 minute: anything shorter would round to 0 in the database.

@@ -131,6 +131,74 @@ describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
     }
   })
 
+  it('with no signal from the first, a scanned label still opens from the phone\'s copy, and a cut and a load made there reach the server once each', async () => {
+    // A shop of its own: one bit already in a machine, one on the shelf.
+    const away = await makeShop('Offline first visit')
+    const afx = await addSpindleFixture(away.id, 2, 600)
+    const [inMachine, onShelf] = afx.cutters as [{ id: number, code: string }, { id: number, code: string }]
+    expect((await away.operator.post(`/api/cutters/${inMachine.id}/load`, { machineId: afx.machines.changer })).status).toBe(200)
+
+    const phone = await journey.browser.newContext({ ...PHONE, baseURL: baseUrl(), locale: 'en-GB', timezoneId: 'UTC' })
+    phone.setDefaultTimeout(20_000)
+    const shot = (page: import('playwright-core').Page, name: string) => page.screenshot({ path: path.join(journey.folder, `${name}.png`), fullPage: true })
+    const db = appDb()
+    try {
+      const page = await phone.newPage()
+      await signIn(page, away.emails.operator, TEST_PASSWORD)
+      // Home, once: the app and the shop's copy are kept on the phone from here.
+      await page.evaluate(() => navigator.serviceWorker.ready)
+      await page.waitForFunction(() => Boolean(localStorage.getItem('kerfbook.offline-copy.v1')))
+
+      await phone.setOffline(true)
+      // The label is scanned: its address is opened, never visited before, with no connection.
+      await page.goto(`/c/${inMachine.code}`)
+      await page.getByText(/No connection: shown from the copy on this phone, (less than a minute|\d+ minutes?) old\./).waitFor()
+      await page.getByRole('heading', { level: 1, name: 'Two-flute upcut 1/4"' }).waitFor()
+      await page.getByText('In Big table with changer', { exact: true }).waitFor()
+      await shot(page, 'offline-first-visit')
+      await expect(audit(page)).resolves.toEqual([])
+
+      await page.getByRole('button', { name: 'Log a cut' }).click()
+      const form = page.getByRole('form', { name: 'Log a cut' })
+      await form.getByRole('button', { name: '45 minutes' }).click()
+      await form.getByRole('button', { name: 'MDF', exact: true }).click()
+      await form.getByRole('button', { name: /^Clean/ }).click()
+      await form.getByRole('button', { name: 'Log 45 min' }).click()
+      await page.getByText(/Saved 45 min in MDF on this phone/).waitFor()
+
+      // Another bit, another label: loaded into the other big table, still with no connection.
+      await page.goto(`/c/${onShelf.code}`)
+      await page.getByText('In the crib', { exact: true }).first().waitFor()
+      await page.getByRole('button', { name: 'Load into a machine' }).click()
+      await page.getByRole('button', { name: 'Second big table' }).click()
+      await page.getByRole('status').filter({ hasText: `Saved on this phone: ${onShelf.code} is loaded into Second big table once the connection is back.` }).waitFor()
+      await page.getByText('In Second big table', { exact: true }).waitFor()
+      await shot(page, 'offline-load-waiting')
+
+      const nothingYet = await db.selectFrom('cut_logs').select('id').where('shop_id', '=', away.id).execute()
+      expect(nothingYet).toEqual([])
+
+      await phone.setOffline(false)
+      const sent = async () => {
+        const logs = await db.selectFrom('cut_logs').select(['cutter_id', 'minutes']).where('shop_id', '=', away.id).execute()
+        const loads = await db.selectFrom('cutter_events').select(['cutter_id', 'machine_id']).where('shop_id', '=', away.id).where('kind', '=', 'loaded').where('cutter_id', '=', onShelf.id).execute()
+        return { logs, loads }
+      }
+      await expect.poll(sent, { timeout: 30_000 }).toEqual({ logs: [{ cutter_id: inMachine.id, minutes: 45 }], loads: [{ cutter_id: onShelf.id, machine_id: afx.machines.other }] })
+      const rows = await db.selectFrom('cutters').select(['id', 'status', 'machine_id', 'minutes_total', 'life_used']).where('shop_id', '=', away.id).orderBy('id').execute()
+      // 45 minutes of MDF (wear factor 1) on a 600-minute type: 7.5 % of the first life (Miner's rule).
+      expect(rows[0]).toMatchObject({ status: 'in_spindle', machine_id: afx.machines.changer, minutes_total: 45 })
+      expect(rows[0]!.life_used).toBeCloseTo(0.075, 9)
+      expect(rows[1]).toMatchObject({ status: 'in_spindle', machine_id: afx.machines.other, minutes_total: 0 })
+      // Back online, the page shows the server's own figures again.
+      await page.getByText(/No connection: shown from the copy/).waitFor({ state: 'detached' })
+      await shot(page, 'offline-sent')
+    } finally {
+      await db.destroy()
+      await phone.close()
+    }
+  })
+
   it('the accessibility check itself reports what a person would trip over', async () => {
     // A page with an unlabelled image and grey-on-grey text: both serious under WCAG 2 AA
     // (1.1.1 non-text content, 1.4.3 contrast), so the journeys' check must name them.

@@ -189,6 +189,7 @@ const TABLE: Record<string, Entry> = {
     tenancy: ({ ra, rb }) => ({ params: { id: ra.programId }, body: { machineId: rb.machineId, materialId: rb.materialId, repeats: 1, idempotencyKey: 'tenancy-run-key' } }),
   },
   'GET /api/materials': { role: 'operator' },
+  'GET /api/offline/copy': { role: 'operator' },
   'GET /api/me': { role: 'operator' },
   'PATCH /api/me': { role: 'operator' },
   'GET /api/orders': { role: 'crib_manager' },

@@ -1,7 +1,7 @@
 // The offline cut-log queue keeps its promise: no log is lost on a dropped connection, and none
 // is counted twice. The fetch layer is a fake server whose network can fail and recover.
 import { describe, expect, it } from 'vitest'
-import { createCutQueue, createFetchSender, memoryStorage, newIdempotencyKey, type CutBody, type KeyValueStorage } from '../../utils/cut-queue'
+import { createCutQueue, createFetchSender, memoryStorage, newIdempotencyKey, type CutBody, type KeyValueStorage, type QueuedCut } from '../../utils/cut-queue'
 
 type Network = 'up' | 'down' | 'drops-answers' | 'server-error'
 
@@ -132,7 +132,7 @@ describe('the cut-log queue', () => {
     const server = fakeServer()
     const queue = queueOver(memoryStorage(), server)
     const bad = await queue.submit(aCut(7, 5000))
-    const fixed = await queue.resubmit(bad.item.key, { body: { ...bad.item.body, minutes: 50 } })
+    const fixed = await queue.resubmit(bad.item.key, { body: { ...(bad.item as QueuedCut).body, minutes: 50 } })
     expect(fixed.state).toBe('sent')
     expect(server.logs.get(bad.item.key)!.body.minutes).toBe(50)
 

@@ -4,6 +4,7 @@
 import QRCode from 'qrcode'
 import { z } from 'zod'
 import { cutterPageUrl, typeShort } from '#shared/kerf/labels'
+import { QR_QUIET_MODULES } from '#shared/kerf/label-sizes'
 
 const SELECTORS = ['ids', 'typeId', 'orderId'] as const
 // Ids are PostgreSQL integers: a larger number would fail in the database rather than here.
@@ -38,7 +39,10 @@ export default defineEventHandler(async (event) => {
       url,
       typeName: c.typeName,
       short: typeShort({ cuttingDiameterMm: c.cutting_diameter_mm, profile: c.profile, vAngleDeg: c.v_angle_deg, flutes: c.flutes, helix: c.helix }, user.lengthUnit),
-      qrSvg: await QRCode.toString(url, { type: 'svg', errorCorrectionLevel: 'M', margin: 0 }),
+      // Each with its quiet zone of four modules inside the drawing, so that no layout can crowd it.
+      qrSvg: await QRCode.toString(url, { type: 'svg', errorCorrectionLevel: 'M', margin: QR_QUIET_MODULES }),
+      // The smallest label's: fewer modules, each larger on 18 mm.
+      qrSvgLow: await QRCode.toString(url, { type: 'svg', errorCorrectionLevel: 'L', margin: QR_QUIET_MODULES }),
     }
   }))
   return { title, labels }

@@ -14,6 +14,8 @@ export interface ShopsTable {
   report_recipients: string[] | null
   daily_all_clear: Generated<boolean>
   life_threshold: Generated<number>
+  /** Minutes in the shop's shift: the cut form asks before logging more in one go. */
+  shift_minutes: Generated<number>
   regrind_life_fraction: Generated<number>
   order_cost_cents: Generated<number>
   holding_rate: Generated<number>

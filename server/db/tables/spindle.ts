@@ -116,6 +116,8 @@ export interface CutterEventsTable {
   actor_id: number | null
   photo_id: number | null
   note: Generated<string>
+  /** The phone's key for a load or return, so that a retry is recognised (null for other events). */
+  idempotency_key: Generated<string | null>
   created_at: Stamp
 }
 

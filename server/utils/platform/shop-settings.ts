@@ -14,6 +14,7 @@ export async function shopSettings(db: Queryable, shopId: number) {
     regrindLifeFraction: s.regrind_life_fraction,
     orderCostCents: s.order_cost_cents,
     holdingRate: s.holding_rate,
+    shiftMinutes: s.shift_minutes,
     labourRateCentsPerHour: s.labour_rate_cents_per_hour,
   }
 }

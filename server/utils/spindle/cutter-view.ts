@@ -14,7 +14,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     .select([
       'c.id', 'c.code', 'c.status', 'c.machine_id', 'c.regrind_count', 'c.diameter_mm', 'c.life_used', 'c.life_scale',
       'c.minutes_total', 'c.minutes_this_life', 'c.flagged', 'c.flagged_at', 'c.retired_reason', 'c.received_at',
-      'm.name as machine_name', 's.life_threshold',
+      'm.name as machine_name', 's.life_threshold', 's.shift_minutes',
       't.id as type_id', 't.name as type_name', 't.rated_life_minutes', 't.flutes', 't.cutting_diameter_mm', 't.shank_diameter_mm',
       't.helix', 't.profile', 't.v_angle_deg', 't.tool_material', 't.max_regrinds', 't.regrind_diameter_loss_mm', 't.min_usable_diameter_mm',
     ])
@@ -23,7 +23,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
   const c = await query.executeTakeFirst()
   if (!c) return undefined
 
-  const [materials, cuts] = await Promise.all([
+  const [materials, cuts, longest] = await Promise.all([
     db.selectFrom('materials').select(['id', 'name', 'wear_factor', 'common'])
       .where('shop_id', '=', shopId).where('active', '=', true)
       .orderBy('common', 'desc').orderBy('name').execute(),
@@ -37,6 +37,12 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
       .limit(RECENT_CUTS)
       .execute(),
+    // The type's longest logged cut, against which the cut form weighs a new one.
+    db.selectFrom('cut_logs as l')
+      .innerJoin('cutters as lc', (j) => j.onRef('lc.id', '=', 'l.cutter_id').onRef('lc.shop_id', '=', 'l.shop_id'))
+      .select((eb) => eb.fn.max('l.minutes').as('minutes'))
+      .where('l.shop_id', '=', shopId).where('lc.type_id', '=', c.type_id)
+      .executeTakeFirst(),
   ])
 
   const forDue = { status: c.status, lifeUsed: c.life_used, flagged: c.flagged, regrindCount: c.regrind_count, diameterMm: c.diameter_mm }
@@ -57,6 +63,8 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     retiredReason: c.retired_reason,
     receivedAt: c.received_at,
     lifeThreshold: c.life_threshold,
+    /** What the cut form weighs a new log's minutes against. */
+    usual: { shiftMinutes: c.shift_minutes, longestCutMinutes: longest?.minutes == null ? null : Number(longest.minutes) },
     due: reason && {
       reason,
       action: dueAction(forDue, {

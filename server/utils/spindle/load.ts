@@ -10,13 +10,15 @@ import type { Db } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
 import { badField } from '../platform/validation'
 import { requireCutterView } from './cutter-view'
-import { lockCutter, recordEvent, STATUS_SENTENCE } from './spindle'
+import { alreadyDone, lockCutter, recordEvent, STATUS_SENTENCE } from './spindle'
 import { cutterList } from '../machines'
 
-export interface LoadRequest { machineId: number, returnCutterId?: number, pocket?: number }
+/** The load route's body; `idempotencyKey` is the phone's key when the load waited in its queue. */
+export interface LoadRequest { machineId: number, returnCutterId?: number, pocket?: number, idempotencyKey?: string }
 
-/** Loads the shop's cutter `id` into a machine and answers the cutter as the pages show it. */
-export async function loadCutter(db: Db, user: SessionUser, id: number, { machineId, returnCutterId, pocket }: LoadRequest) {
+/** Loads the shop's cutter `id` into a machine and answers the cutter as the pages show it. With the
+ *  phone's key, a load sent again after a lost answer is done once, whatever happened since. */
+export async function loadCutter(db: Db, user: SessionUser, id: number, { machineId, returnCutterId, pocket, idempotencyKey }: LoadRequest) {
   await db.transaction().execute(async (tx) => {
     const machine = await tx.selectFrom('machines').select(['id', 'name', 'pockets', 'active'])
       .where('shop_id', '=', user.shopId).where('id', '=', machineId)
@@ -24,6 +26,7 @@ export async function loadCutter(db: Db, user: SessionUser, id: number, { machin
     if (!machine) badField('machineId', 'no such machine in your shop')
     if (!machine.active) badField('machineId', `${machine.name} is retired; choose another machine or ask the crib manager to bring it back`)
     const cutter = await lockCutter(tx, user.shopId, id)
+    if (await alreadyDone(tx, user.shopId, idempotencyKey)) return
     if (cutter.status === 'in_spindle') {
       if (cutter.machine_id === machineId) return // already there: loading twice is harmless
       const where = await tx.selectFrom('machines').select('name').where('id', '=', cutter.machine_id!).executeTakeFirst()
@@ -59,7 +62,7 @@ export async function loadCutter(db: Db, user: SessionUser, id: number, { machin
     }
     await tx.updateTable('cutters').set({ status: 'in_spindle', machine_id: machineId, pocket: into, updated_at: new Date() })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id, note: into ? `Pocket ${into}` : undefined })
+    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id, note: into ? `Pocket ${into}` : undefined, idempotencyKey })
   })
   return requireCutterView(db, user.shopId, { id })
 }

@@ -33,14 +33,16 @@ export interface CutterChange {
  */
 export async function changeCutter(
   user: SessionUser, id: number, decide: (cutter: LockedCutter, tx: Tx) => CutterChange | undefined | Promise<CutterChange | undefined>,
+  options: { idempotencyKey?: string } = {},
 ) {
   await transaction(async (tx) => {
     const cutter = await lockCutter(tx, user.shopId, id)
+    if (await alreadyDone(tx, user.shopId, options.idempotencyKey)) return
     const change = await decide(cutter, tx)
     if (!change) return
     await tx.updateTable('cutters').set({ ...change.set, updated_at: new Date() })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, from: cutter.status, actorId: user.id, ...change.event })
+    await recordEvent(tx, { shopId: user.shopId, cutterId: id, from: cutter.status, actorId: user.id, idempotencyKey: options.idempotencyKey, ...change.event })
   })
   return requireCutterView(useDb(), user.shopId, { id })
 }
@@ -48,6 +50,8 @@ export async function changeCutter(
 export interface CutterEvent {
   shopId: number, cutterId: number, kind: CutterEventKind, from: CutterStatus | null, to: CutterStatus | null,
   machineId?: number | null, actorId: number | null, note?: string, photoId?: number | null,
+  /** The phone's key for the action (a load or return from its queue). */
+  idempotencyKey?: string,
 }
 
 /** The cutter_events row of an event, for recordEvent and for routes that write it within a larger statement. */
@@ -55,7 +59,20 @@ export function eventRow(e: CutterEvent) {
   return {
     shop_id: e.shopId, cutter_id: e.cutterId, kind: e.kind, from_status: e.from, to_status: e.to,
     machine_id: e.machineId ?? null, actor_id: e.actorId, note: e.note ?? '', photo_id: e.photoId ?? null,
+    ...(e.idempotencyKey ? { idempotency_key: e.idempotencyKey } : {}),
   }
+}
+
+/**
+ * Whether an action with this key was done already: the phone sends a waiting action again, with
+ * the same key, until it hears an answer. Called with the cutter's row locked, so a retry racing
+ * its first attempt waits for it and then finds its event.
+ */
+export async function alreadyDone(tx: Tx, shopId: number, idempotencyKey: string | undefined): Promise<boolean> {
+  if (!idempotencyKey) return false
+  const found = await tx.selectFrom('cutter_events').select('id')
+    .where('shop_id', '=', shopId).where('idempotency_key', '=', idempotencyKey).executeTakeFirst()
+  return Boolean(found)
 }
 
 export async function recordEvent(tx: Tx, e: CutterEvent): Promise<void> {

@@ -3,6 +3,7 @@
 import QRCode from 'qrcode'
 import { z } from 'zod'
 import { cutterPageUrl } from '#shared/kerf/labels'
+import { QR_QUIET_MODULES } from '#shared/kerf/label-sizes'
 
 const Params = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) })
 
@@ -13,7 +14,7 @@ export default defineEventHandler(async (event) => {
     .where('id', '=', id).where('shop_id', '=', user.shopId)
     .executeTakeFirst()
   if (!cutter) notFound('cutter')
-  const png = await QRCode.toBuffer(cutterPageUrl(publicBaseUrl(event), cutter.code), { errorCorrectionLevel: 'M', margin: 2, scale: 8 })
+  const png = await QRCode.toBuffer(cutterPageUrl(publicBaseUrl(event), cutter.code), { errorCorrectionLevel: 'M', margin: QR_QUIET_MODULES, scale: 8 })
   setResponseHeaders(event, { 'content-type': 'image/png', 'cache-control': 'private, max-age=3600' })
   return png
 })
