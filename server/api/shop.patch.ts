@@ -14,6 +14,10 @@ export default defineEventHandler(async (event) => {
     ...(b.regrindLifeFraction !== undefined && { regrind_life_fraction: b.regrindLifeFraction }),
     ...(b.orderCostCents !== undefined && { order_cost_cents: b.orderCostCents }),
     ...(b.holdingRate !== undefined && { holding_rate: b.holdingRate }),
+    ...(b.address !== undefined && { address: b.address }),
+    ...(b.phone !== undefined && { phone: b.phone }),
+    ...(b.replyEmail !== undefined && { reply_email: b.replyEmail }),
+    ...(b.currency !== undefined && { currency: b.currency }),
   }
   if (Object.keys(set).length) await useDb().updateTable('shops').set(set).where('id', '=', owner.shopId).execute()
   return shopSettings(useDb(), owner.shopId)

@@ -28,7 +28,7 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
         sql<number>`floor(extract(epoch from l.cut_at) / 86400)::int`.as('day'),
         sql<number>`sum(l.minutes * l.wear_factor / t.rated_life_minutes)`.as('lives'),
       ])
-      .where('l.shop_id', '=', shopId)
+      .where('l.shop_id', '=', shopId).where('l.voided_at', 'is', null)
       .where('l.cut_at', '>', windowStart).where('l.cut_at', '<=', now)
       .groupBy(['c.type_id', 'day'])
       .execute(),

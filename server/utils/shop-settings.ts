@@ -14,6 +14,10 @@ export async function shopSettings(db: Queryable, shopId: number) {
     regrindLifeFraction: s.regrind_life_fraction,
     orderCostCents: s.order_cost_cents,
     holdingRate: s.holding_rate,
+    address: s.address,
+    phone: s.phone,
+    replyEmail: s.reply_email,
+    currency: s.currency,
   }
 }
 export type ShopSettings = Awaited<ReturnType<typeof shopSettings>>

@@ -19,6 +19,8 @@ export interface ShopRecords {
   sentBatch: { id: number, cutterId: number }
   reportId: number
   uploadId: number
+  /** A cut logged by the owner on the cutter in the machine. */
+  cutLogId: number
 }
 
 export async function addShopRecords(shopId: number, ownerId: number): Promise<ShopRecords> {
@@ -54,7 +56,12 @@ export async function addShopRecords(shopId: number, ownerId: number): Promise<S
       shop_id: shopId, storage_key: `photos/${shopId}/${randomUUID()}.png`, kind: 'photo', content_type: 'image/png', size_bytes: 1,
       uploaded_by: ownerId,
     }).returning('id').executeTakeFirstOrThrow()
+    const cutLog = await db.insertInto('cut_logs').values({
+      shop_id: shopId, cutter_id: spindle!.id, machine_id: fixture.machineId, operator_id: ownerId, material_id: material.id,
+      minutes: 12, wear_factor: 1, life_added: 0.02, outcome: 'clean', idempotency_key: `records-${randomUUID()}`,
+    }).returning('id').executeTakeFirstOrThrow()
     return {
+      cutLogId: Number(cutLog.id),
       supplierId: fixture.supplier.id, machineId: fixture.machineId, materialId: material.id, typeId: fixture.typeId, chipLoadId: chipLoad.id,
       cutters: { crib: crib!, spindle: spindle!, lost: lost!, dull: dull!, away: away! },
       draftOrderId: draft!.id, sentOrder: { id: sent!.id, lineId: sentLine!.id },

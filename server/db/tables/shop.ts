@@ -2,6 +2,7 @@
 import type { ColumnType, Generated } from 'kysely'
 import type { Role } from '../../../shared/kerf/roles'
 import type { LengthUnit } from '../../../shared/kerf/units'
+import type { Currency } from '../../../shared/kerf/money'
 
 export type { LengthUnit, Role }
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>
@@ -17,6 +18,14 @@ export interface ShopsTable {
   regrind_life_fraction: Generated<number>
   order_cost_cents: Generated<number>
   holding_rate: Generated<number>
+  /** Postal address, lines separated by newlines; printed on orders and regrind batches. */
+  address: Generated<string>
+  phone: string | null
+  /** Where suppliers reply (Reply-To of the shop's orders and batches). */
+  reply_email: string | null
+  currency: Generated<Currency>
+  last_order_number: Generated<number>
+  last_batch_number: Generated<number>
   created_at: CreatedAt
 }
 

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const created = await transaction(async (tx) => {
     const order = await lockOrder(tx, user.shopId, id)
     if (order.status !== 'sent' && order.status !== 'partly_received') {
-      throw createError({ statusCode: 409, statusMessage: `${orderNumber(id)} is ${order.status.replace('_', ' ')}: only a sent order can be received.` })
+      throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} is ${order.status.replace('_', ' ')}: only a sent order can be received.` })
     }
     const lines = await tx.selectFrom('purchase_order_lines as l')
       .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'l.type_id').onRef('t.shop_id', '=', 'l.shop_id'))
@@ -20,14 +20,14 @@ export default defineEventHandler(async (event) => {
     const cutters = []
     for (const input of body.lines) {
       const line = byId.get(input.lineId)
-      if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(id)}` })
+      if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(order.number)}` })
       const open = line.quantity - line.received_quantity
       if (input.quantity > open) {
         throw createError({ statusCode: 400, statusMessage: `lines: only ${open} of ${line.name} are still to come on this order`, data: { fields: { [`line-${line.id}`]: `at most ${open}` } } })
       }
       if (input.quantity === 0) continue
       cutters.push(...Array.from({ length: input.quantity }, () => ({
-        typeId: line.type_id, diameterMm: input.diameterMm ?? line.cutting_diameter_mm, orderLineId: line.id, note: `Received on ${orderNumber(id)}`,
+        typeId: line.type_id, diameterMm: input.diameterMm ?? line.cutting_diameter_mm, orderLineId: line.id, note: `Received on ${orderNumber(order.number)}`,
       })))
       await tx.updateTable('purchase_order_lines').set({ received_quantity: line.received_quantity + input.quantity })
         .where('shop_id', '=', user.shopId).where('id', '=', line.id).execute()

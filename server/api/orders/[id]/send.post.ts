@@ -7,16 +7,17 @@ export default defineEventHandler(async (event) => {
   const { id } = await getValidatedRouterParams(event, parseWith(OrderIdParams))
   await transaction(async (tx) => {
     const order = await lockOrder(tx, user.shopId, id)
-    if (order.status !== 'draft') throw createError({ statusCode: 409, statusMessage: `${orderNumber(id)} was already sent.` })
+    if (order.status !== 'draft') throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} was already sent.` })
     const view = await orderView(tx, user.shopId, id)
     if (!view.supplier?.email) {
       throw createError({ statusCode: 400, statusMessage: 'The supplier has no e-mail address. Add one in Suppliers, then send again.' })
     }
-    const shop = await tx.selectFrom('shops').select('name').where('id', '=', user.shopId).executeTakeFirstOrThrow()
-    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: new Date() })
+    const shop = await shopLetterhead(tx, user.shopId)
+    // The address the order went out with stays on it, whatever the shop's address becomes.
+    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: new Date(), ship_to: shop.address })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
     try {
-      await sendMail(orderMail(view, shop.name, user.name))
+      await sendMail(orderMail(view, shop, user.name))
     } catch (err) {
       throw createError({ statusCode: 502, statusMessage: `The mail server did not take the order: ${err instanceof Error ? err.message : err}. Nothing was sent; try again.` })
     }

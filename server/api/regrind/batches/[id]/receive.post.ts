@@ -65,7 +65,7 @@ export default defineEventHandler(async (event) => {
         }).where('shop_id', '=', user.shopId).where('id', '=', c.id).execute()
         await recordEvent(tx, {
           shopId: user.shopId, cutterId: c.id, kind: 'reground', from: 'at_regrind', to: 'in_crib', actorId: user.id,
-          note: `Reground to ${diameter.toFixed(3)} mm (batch ${id})`,
+          note: `Reground to ${diameter.toFixed(3)} mm (batch ${batch.number})`,
         })
       } else {
         await tx.updateTable('cutters').set({
@@ -74,8 +74,8 @@ export default defineEventHandler(async (event) => {
         await recordEvent(tx, {
           shopId: user.shopId, cutterId: c.id, kind: 'retired', from: 'at_regrind', to: 'retired', actorId: user.id,
           note: verdict.cause === 'undersize'
-            ? `Came back at ${diameter.toFixed(3)} mm, below the minimum usable ${c.min_usable_diameter_mm.toFixed(3)} mm (batch ${id})`
-            : `Came back from a regrind past the ${c.max_regrinds} this type allows (batch ${id})`,
+            ? `Came back at ${diameter.toFixed(3)} mm, below the minimum usable ${c.min_usable_diameter_mm.toFixed(3)} mm (batch ${batch.number})`
+            : `Came back from a regrind past the ${c.max_regrinds} this type allows (batch ${batch.number})`,
         })
       }
       await tx.updateTable('regrind_batch_items').set({

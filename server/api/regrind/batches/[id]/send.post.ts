@@ -21,7 +21,7 @@ export default defineEventHandler(async (event) => {
       .forUpdate('c')
       .execute()
     if (!cutters.length) {
-      throw createError({ statusCode: 409, statusMessage: `Batch ${id} has no cutters. Add the cutters to send before sending it.` })
+      throw createError({ statusCode: 409, statusMessage: `Batch ${batch.number} has no cutters. Add the cutters to send before sending it.` })
     }
     const changed = cutters.filter((c) => !(DUE_STATUSES as readonly string[]).includes(c.status))
     if (changed.length) {
@@ -43,10 +43,11 @@ export default defineEventHandler(async (event) => {
         .execute()
       await recordEvent(tx, {
         shopId: user.shopId, cutterId: c.id, kind: 'sent_to_regrind', from: c.status, to: 'at_regrind',
-        machineId: c.machine_id, actorId: user.id, note: `Batch ${id}`,
+        machineId: c.machine_id, actorId: user.id, note: `Batch ${batch.number}`,
       })
     }
-    await tx.updateTable('regrind_batches').set({ status: 'sent', sent_at: now })
+    const { address } = await tx.selectFrom('shops').select('address').where('id', '=', user.shopId).executeTakeFirstOrThrow()
+    await tx.updateTable('regrind_batches').set({ status: 'sent', sent_at: now, ship_to: address })
       .where('shop_id', '=', user.shopId).where('id', '=', id)
       .execute()
   })
