@@ -48,6 +48,11 @@ export default defineNuxtConfig({
   },
   nitro: {
     experimental: { tasks: true },
+    // server/utils has a folder per room; Nitro auto-imports only the top level of server/utils,
+    // so each room is listed (platform: db, auth, validation, mail…; spindle; crib; insights).
+    imports: {
+      dirs: ['utils/platform', 'utils/spindle', 'utils/crib', 'utils/insights'].map((d) => `./server/${d}`),
+    },
     // Checked every five minutes; each shop's own time zone and report time decide (and the
     // per-day record makes extra runs harmless).
     scheduledTasks: { '*/5 * * * *': ['report:nightly'] },

@@ -6,7 +6,7 @@ import { formatMoney, parseMoney } from '#shared/kerf/money'
 import { lengthText, parseDecimal, parseLength, parseServiceLevel, roundTo } from '#shared/kerf/numbers'
 import { CutterTypeBody } from '#shared/schemas/crib'
 import type { Helix, Profile, ToolMaterial } from '#shared/kerf/geometry'
-import type { CutterTypeJson } from '~~/server/utils/catalogue'
+import type { CutterTypeJson } from '~~/server/utils/crib/catalogue'
 
 export const LENGTH_FIELDS = ['cuttingDiameterMm', 'shankDiameterMm', 'cuttingLengthMm', 'overallLengthMm', 'minUsableDiameterMm', 'regrindDiameterLossMm'] as const
 export type LengthField = (typeof LENGTH_FIELDS)[number]

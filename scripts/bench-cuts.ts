@@ -244,7 +244,7 @@ function pgBin(name: string): string {
 
 /**
  * What POST /api/cutters/:id/cuts sends for a new log, statement by statement (Kysely's SQL,
- * read off the route, server/utils/auth.ts and server/utils/spindle.ts; see DEVELOPERS.md).
+ * read off server/utils/spindle/cuts.ts, server/utils/platform/auth.ts and server/utils/spindle/spindle.ts; see DEVELOPERS.md).
  */
 export function pgbenchScript(): string {
   return `-- One logged cut, as the route sends it.

@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# `npm test`: installs what is needed (Chromium for the browser journeys too), starts a PostgreSQL
+# `npm test`: installs what is needed (Chromium for the browser journeys in tests/e2e too), starts a PostgreSQL
 # of its own (port 55433, separate data folder), type-checks, lints, builds, and runs every test.
 # Ends with the test runner's summary.
 set -euo pipefail

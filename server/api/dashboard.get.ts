@@ -1,5 +1,5 @@
 // The home page's figures: cutters by status, the ones due for attention, and recent cutting.
-// Operators also see what they have loaded; everyone sees the same due list (server/utils/due.ts).
+// Operators also see what they have loaded; everyone sees the same due list (server/utils/crib/due.ts).
 import { sql } from 'kysely'
 import { CUTTER_STATUSES, type CutterStatus } from '#shared/kerf/status'
 

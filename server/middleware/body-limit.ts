@@ -1,7 +1,7 @@
 // Refuses a write whose body is larger than any form of ours sends, before it is read: a JSON
 // body is parsed whole, so without this one request could hold megabytes of the server's memory.
-// The CSV imports and the flag photo have larger limits of their own (server/utils/csv-import.ts,
-// server/utils/uploads.ts).
+// The CSV imports and the flag photo have larger limits of their own (server/utils/platform/csv-import.ts,
+// server/utils/platform/uploads.ts).
 export const JSON_BODY_MAX_BYTES = 256 * 1024
 
 const OWN_LIMIT = [/^\/api\/import\//, /^\/api\/cutters\/[^/]+\/flag$/]

@@ -82,6 +82,8 @@ describe('life used through the route (Palmgren–Miner linear damage rule)', ()
 
     const view = (await shop.operator.get(`/api/cutters/${c.id}`)).body
     expect(view.lifeUsed).toBeCloseTo(expected, 6)
+    // The cut's answer carries the cutter as the pages show it, so the phone need not fetch again.
+    expect(second.body.cutter).toEqual(view)
     const remainingMdf = view.remainingMinutes.find((r: { materialId: number }) => r.materialId === mdf.id).minutes
     expect(remainingMdf).toBeCloseTo(((1 - expected) * 600) / mdf.wearFactor, 1)
     expect(view.recentCuts[0]).toMatchObject({ minutes: 90, materialName: 'Aluminium composite panel', rpm: 18000, note: 'sign faces', operatorName: 'Test Operator' })

@@ -1,5 +1,7 @@
-// Before the server tests: a fresh database, migrated; the mail catcher; and the built app
-// (.output) started against both. Tests reach them through the environment variables set here.
+// Before the server tests and the browser journeys: a fresh database, migrated; the mail catcher;
+// and the built app (.output) started against both. Tests reach them through the environment
+// variables set here. Both projects (server, e2e) name this file; whichever runs first starts
+// everything, and the last to finish stops it, so one run has one app, database and catcher.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { existsSync, rmSync } from 'node:fs'
 import path from 'node:path'
@@ -16,7 +18,26 @@ const TASK_TOKEN = 'test-task-token-0123456789'
 let server: ChildProcess | undefined
 let catcher: MailCatcher | undefined
 
+// Shared by the two projects' copies of this module (each project loads it on its own).
+const shared = globalThis as typeof globalThis & { kerfbookSetup?: { users: number, ready: Promise<void> } }
+
 export async function setup() {
+  if (shared.kerfbookSetup) {
+    shared.kerfbookSetup.users++
+    return shared.kerfbookSetup.ready
+  }
+  const ready = start()
+  shared.kerfbookSetup = { users: 1, ready }
+  return ready
+}
+
+export async function teardown() {
+  if (!shared.kerfbookSetup || --shared.kerfbookSetup.users > 0) return
+  shared.kerfbookSetup = undefined
+  await stop()
+}
+
+async function start() {
   process.env.KERFBOOK_TEST_ADMIN_URL ??= 'postgres://postgres@127.0.0.1:55433/postgres'
   const entry = path.join(projectRoot, '.output/server/index.mjs')
   if (!existsSync(entry)) throw new Error('No built app in .output: run the tests with `npm test`, which builds first.')
@@ -59,7 +80,7 @@ export async function setup() {
   process.env.KERFBOOK_TEST_UPLOADS_DIR = uploadsDir
 }
 
-export async function teardown() {
+async function stop() {
   if (server && server.exitCode === null) {
     const exited = new Promise((resolve) => server!.once('exit', resolve))
     server.kill('SIGTERM')

@@ -5,7 +5,7 @@ import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import { sql, type Insertable } from 'kysely'
 import type { Db, Tx } from '../connect'
 import type { Database } from '../schema'
-import { startingChipLoadRows } from '../../utils/chip-loads'
+import { startingChipLoadRows } from '../../utils/spindle/chip-loads'
 import {
   CRIB_EMAIL, CUTTER_TYPES, DEMO_PASSWORD, DEMO_SHOP, MACHINES, MATERIALS, OPEN_ORDER, PEOPLE, REGRIND_SUPPLIER, SUPPLIERS,
 } from './demo-data'

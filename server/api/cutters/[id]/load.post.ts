@@ -1,62 +1,10 @@
-// Load a cutter into a machine. The cutter's row lock makes two operators loading the same bit at
-// once end with one 200 and one 409 that names the machine. A machine without a tool changer holds
-// one bit: loading a second answers 409 naming the bit there, unless the request names that bit
-// in `returnCutterId`, which goes back to the crib in the same transaction. The machine's row is
-// locked first, so two loads into one such machine at once queue and end with one bit in it.
+// Load a cutter into a machine (server/utils/spindle/load.ts): a one-bit machine's bit can be
+// returned in the same step (`returnCutterId`). Answers the cutter as the pages show it.
 import { CutterIdParams, LoadBody } from '#shared/schemas/spindle'
 
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { id } = await getValidatedRouterParams(event, parseWith(CutterIdParams))
   const { machineId, returnCutterId } = await readValidatedBody(event, parseWith(LoadBody))
-
-  await transaction(async (tx) => {
-    const machine = await tx.selectFrom('machines').select(['id', 'name', 'pockets', 'active'])
-      .where('shop_id', '=', user.shopId).where('id', '=', machineId)
-      .forUpdate().executeTakeFirst()
-    if (!machine) {
-      throw createError({ statusCode: 400, statusMessage: 'machineId: no such machine in your shop', data: { fields: { machineId: 'no such machine in your shop' } } })
-    }
-    if (!machine.active) {
-      const message = `${machine.name} is retired; choose another machine or ask the crib manager to bring it back`
-      throw createError({ statusCode: 400, statusMessage: `machineId: ${message}`, data: { fields: { machineId: message } } })
-    }
-    const cutter = await lockCutter(tx, user.shopId, id)
-    if (cutter.status === 'in_spindle') {
-      if (cutter.machine_id === machineId) return // already there: loading twice is harmless
-      const where = await tx.selectFrom('machines').select('name').where('id', '=', cutter.machine_id!).executeTakeFirst()
-      throw createError({
-        statusCode: 409,
-        statusMessage: `Cutter ${cutter.code} is already loaded in ${where?.name ?? 'another machine'}. Return it to the crib first.`,
-        data: { machineId: cutter.machine_id, machineName: where?.name },
-      })
-    }
-    if (cutter.status !== 'in_crib') {
-      throw createError({ statusCode: 409, statusMessage: `Cutter ${cutter.code} ${STATUS_SENTENCE[cutter.status]} and cannot be loaded.` })
-    }
-    const held = await tx.selectFrom('cutters').select(['id', 'code'])
-      .where('shop_id', '=', user.shopId).where('machine_id', '=', machineId).where('status', '=', 'in_spindle')
-      .orderBy('code').forUpdate().execute()
-    const toReturn = held.filter((h) => h.id === returnCutterId)
-    if (machine.pockets === 0 && held.length > toReturn.length) {
-      const codes = held.map((h) => h.code)
-      throw createError({
-        statusCode: 409,
-        statusMessage: `${machine.name} holds one bit at a time and ${cutterList(codes)} ${codes.length === 1 ? 'is' : 'are'} in it. Return ${codes.length === 1 ? 'it' : 'them'} first, or return that one and load this.`,
-        data: { machineId, machineName: machine.name, held },
-      })
-    }
-    for (const p of toReturn) {
-      await tx.updateTable('cutters').set({ status: 'in_crib', machine_id: null, updated_at: new Date() })
-        .where('shop_id', '=', user.shopId).where('id', '=', p.id).execute()
-      await recordEvent(tx, {
-        shopId: user.shopId, cutterId: p.id, kind: 'returned', from: 'in_spindle', to: 'in_crib', machineId,
-        actorId: user.id, note: `Taken out when ${cutter.code} was loaded`,
-      })
-    }
-    await tx.updateTable('cutters').set({ status: 'in_spindle', machine_id: machineId, updated_at: new Date() })
-      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
-    await recordEvent(tx, { shopId: user.shopId, cutterId: id, kind: 'loaded', from: 'in_crib', to: 'in_spindle', machineId, actorId: user.id })
-  })
-  return { cutter: await requireCutterView(useDb(), user.shopId, { id }) }
+  return { cutter: await loadCutter(useDb(), user, id, machineId, returnCutterId) }
 })

@@ -1,0 +1,82 @@
+// Sending a purchase order to its supplier and receiving a delivery against it: the two writes
+// that move an order along, each one transaction under the order's row lock.
+import type { ReceiveOrderBody } from '#shared/schemas/orders'
+import type { z } from 'zod'
+import type { Db } from '../../db/connect'
+import type { SessionUser } from '../platform/auth'
+import { sendMail } from '../platform/mail'
+import { lockOrder } from './order-lines'
+import { orderMail, orderNumber, orderView, shopLetterhead } from './orders'
+import { createCutters } from './receiving'
+
+/**
+ * Sends a draft order to its supplier by e-mail. The e-mail goes out inside the transaction, so
+ * an order is marked sent only when the mail server took it. Answers the order as the crib sees it.
+ */
+export async function sendOrder(db: Db, user: SessionUser, id: number) {
+  await db.transaction().execute(async (tx) => {
+    const order = await lockOrder(tx, user.shopId, id)
+    if (order.status !== 'draft') throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} was already sent.` })
+    const view = await orderView(tx, user.shopId, id)
+    if (!view.supplier?.email) {
+      throw createError({ statusCode: 400, statusMessage: 'The supplier has no e-mail address. Add one in Suppliers, then send again.' })
+    }
+    const shop = await shopLetterhead(tx, user.shopId)
+    // The address the order went out with stays on it, whatever the shop's address becomes.
+    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: new Date(), ship_to: shop.address })
+      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
+    try {
+      await sendMail(orderMail(view, shop, user.name))
+    } catch (err) {
+      throw createError({ statusCode: 502, statusMessage: `The mail server did not take the order: ${err instanceof Error ? err.message : err}. Nothing was sent; try again.` })
+    }
+  })
+  return orderView(db, user.shopId, id)
+}
+
+/**
+ * Receives a delivery against a sent order: the cutters are created with label codes in one
+ * step, the lines count what came, and the order is received once every line is complete.
+ * Answers the order, the new cutters and the label sheet to print.
+ */
+export async function receiveOrder(db: Db, user: SessionUser, id: number, body: z.output<typeof ReceiveOrderBody>) {
+  const created = await db.transaction().execute(async (tx) => {
+    const order = await lockOrder(tx, user.shopId, id)
+    if (order.status !== 'sent' && order.status !== 'partly_received') {
+      throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} is ${order.status.replace('_', ' ')}: only a sent order can be received.` })
+    }
+    const lines = await tx.selectFrom('purchase_order_lines as l')
+      .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'l.type_id').onRef('t.shop_id', '=', 'l.shop_id'))
+      .select(['l.id', 'l.type_id', 'l.quantity', 'l.received_quantity', 't.name', 't.cutting_diameter_mm'])
+      .where('l.shop_id', '=', user.shopId).where('l.order_id', '=', id)
+      .forUpdate('l').execute()
+    const byId = new Map(lines.map((l) => [l.id, l]))
+    const cutters = []
+    for (const input of body.lines) {
+      const line = byId.get(input.lineId)
+      if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(order.number)}` })
+      const open = line.quantity - line.received_quantity
+      if (input.quantity > open) {
+        throw createError({ statusCode: 400, statusMessage: `lines: only ${open} of ${line.name} are still to come on this order`, data: { fields: { [`line-${line.id}`]: `at most ${open}` } } })
+      }
+      if (input.quantity === 0) continue
+      cutters.push(...Array.from({ length: input.quantity }, () => ({
+        typeId: line.type_id, diameterMm: input.diameterMm ?? line.cutting_diameter_mm, orderLineId: line.id, note: `Received on ${orderNumber(order.number)}`,
+      })))
+      await tx.updateTable('purchase_order_lines').set({ received_quantity: line.received_quantity + input.quantity })
+        .where('shop_id', '=', user.shopId).where('id', '=', line.id).execute()
+      line.received_quantity += input.quantity
+    }
+    if (!cutters.length) throw createError({ statusCode: 400, statusMessage: 'lines: enter how many arrived on at least one line' })
+    const complete = lines.every((l) => l.received_quantity >= l.quantity)
+    await tx.updateTable('purchase_orders')
+      .set({ status: complete ? 'received' : 'partly_received', ...(complete && { received_at: new Date() }) })
+      .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
+    return createCutters(tx, user.shopId, user.id, cutters)
+  })
+  return {
+    order: await orderView(db, user.shopId, id),
+    cutters: created.map((c) => ({ id: c.id, code: c.code, typeId: c.type_id })),
+    labelsUrl: `/labels?ids=${created.map((c) => c.id).join(',')}`,
+  }
+}

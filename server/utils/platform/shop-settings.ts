@@ -1,0 +1,23 @@
+// The shop's settings as the settings page sees them.
+import type { Queryable } from '../../db/connect'
+
+export async function shopSettings(db: Queryable, shopId: number) {
+  const s = await db.selectFrom('shops').selectAll().where('id', '=', shopId).executeTakeFirstOrThrow()
+  return {
+    id: s.id,
+    name: s.name,
+    timeZone: s.time_zone,
+    reportTime: s.report_time.slice(0, 5),
+    reportRecipients: s.report_recipients,
+    dailyAllClear: s.daily_all_clear,
+    lifeThreshold: s.life_threshold,
+    regrindLifeFraction: s.regrind_life_fraction,
+    orderCostCents: s.order_cost_cents,
+    holdingRate: s.holding_rate,
+    address: s.address,
+    phone: s.phone,
+    replyEmail: s.reply_email,
+    currency: s.currency,
+  }
+}
+export type ShopSettings = Awaited<ReturnType<typeof shopSettings>>

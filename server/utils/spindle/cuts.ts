@@ -1,0 +1,160 @@
+// Logging a cut. The log, the cutter's life and minute totals, and the event are written by one
+// statement (so together or not at all); the client's idempotency key makes a retry (after a
+// dropped connection, or from the phone's queue) return the first log instead of counting twice.
+// A new log is two statements, both prepared once per connection and neither inside an explicit
+// transaction: one read (the cutter with its type, the material, the machine and any log already
+// sent with this key) and one that writes the log, the totals and the event if the cutter is still
+// as read, and answers the new totals. Holding no transaction open between them keeps PostgreSQL's
+// connections from waiting on the app, which was most of a log's time under load.
+import { sql } from 'kysely'
+import { lifeAdded, roundLife } from '#shared/kerf/life'
+import type { CutLogBody } from '#shared/schemas/spindle'
+import type { z } from 'zod'
+import type { Selectable } from 'kysely'
+import { PREPARED, type Db } from '../../db/connect'
+import type { CutterStatus } from '../../db/schema'
+import type { CutLogsTable } from '../../db/tables/spindle'
+import { notFound, type SessionUser } from '../platform/auth'
+import { badField } from '../platform/validation'
+import { requireCutterView } from './cutter-view'
+import { eventRow } from './spindle'
+
+type CutLogInput = z.output<typeof CutLogBody>
+
+const LOG_COLUMNS = ['id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
+  'rpm', 'feed_mm_per_min', 'outcome', 'note', 'idempotency_key', 'cut_at'] as const
+// Typed, because a union of selects gives untyped parameters the type text.
+const EVENT_TYPES = {
+  shop_id: 'integer', cutter_id: 'integer', kind: 'text', from_status: 'text', to_status: 'text', machine_id: 'integer',
+  actor_id: 'integer', note: 'text', photo_id: 'integer',
+} as const
+const EVENT_COLUMNS = Object.keys(EVENT_TYPES) as Array<keyof typeof EVENT_TYPES>
+const KEY_USED = 'This idempotency key was already used for another cutter. Send the log with a new key.'
+// life_added and life_used are numeric(10,6), at most 9999.999999 lives. Only a rated life
+// entered far too short gets near that; the figures stop at the column's limit instead of
+// failing the log (the cutter is long due by then).
+const MAX_LIVES = 9999
+
+/** The cutter (404 when not in the shop) with what the log needs, and any log already sent with the key. */
+async function readForLog(db: Db, shopId: number, id: number, body: CutLogInput) {
+  const row = await db.selectFrom('cutters as c')
+    .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
+    .leftJoin('materials as m', (j) => j.onRef('m.shop_id', '=', 'c.shop_id').on('m.id', '=', body.materialId).on('m.active', '=', true))
+    .leftJoin('cut_logs as e', (j) => j.onRef('e.shop_id', '=', 'c.shop_id').on('e.idempotency_key', '=', body.idempotencyKey))
+    .select(['c.status', 'c.machine_id', 'c.regrind_count', 'c.life_scale', 'c.life_used', 'c.minutes_total', 't.rated_life_minutes',
+      'm.id as material_id', 'm.wear_factor', 'e.id as earlier_id'])
+    .$if(body.machineId != null, (q) => q.select((eb) => eb.exists(
+      eb.selectFrom('machines as mc').select('mc.id').whereRef('mc.shop_id', '=', 'c.shop_id').where('mc.id', '=', body.machineId!),
+    ).as('machine_found')))
+    .where('c.shop_id', '=', shopId).where('c.id', '=', id)
+    .modifyEnd(PREPARED)
+    .executeTakeFirst()
+  if (!row) notFound('cutter')
+  return row as typeof row & { machine_found?: boolean }
+}
+
+/** What came of one try: the log (new or sent before), or `stale` when the cutter changed meanwhile. */
+type Attempt = { replay: boolean, log: CutLogRow, totals: { life_used: number, minutes_total: number, status: CutterStatus } } | 'stale'
+type CutLogRow = Pick<Selectable<CutLogsTable>, typeof LOG_COLUMNS[number]>
+
+/**
+ * One try at logging: read the cutter without a lock, work out the life the cut used, then write
+ * the log, the cutter's totals and the events in one statement, on condition that the cutter's
+ * status and sharp life are still the ones read. One statement is one transaction on its own, and
+ * no transaction stays open while the app works out what to write. If another change came between
+ * the read and the write (a regrind, a retirement), nothing is written and the caller tries again.
+ */
+async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInput, cutAt: Date): Promise<Attempt> {
+  const cutter = await readForLog(db, user.shopId, id, body)
+  if (cutter.earlier_id != null) {
+    const earlier = await db.selectFrom('cut_logs').select(LOG_COLUMNS).where('id', '=', cutter.earlier_id).executeTakeFirstOrThrow()
+    if (earlier.cutter_id !== id) throw createError({ statusCode: 409, statusMessage: KEY_USED })
+    return { replay: true, log: earlier, totals: { life_used: cutter.life_used, minutes_total: cutter.minutes_total, status: cutter.status } }
+  }
+  if (cutter.material_id == null || cutter.wear_factor == null) badField('materialId', 'no such material in your shop')
+  if (body.machineId != null && !cutter.machine_found) badField('machineId', 'no such machine in your shop')
+  const machineId = body.machineId ?? cutter.machine_id
+
+  const added = Math.min(MAX_LIVES, roundLife(lifeAdded(body.minutes, cutter.wear_factor, cutter.rated_life_minutes, cutter.life_scale)))
+  const broken = body.outcome === 'broken' && cutter.status !== 'retired'
+  const event = { shopId: user.shopId, cutterId: id, machineId, actorId: user.id }
+  const events = [eventRow({ ...event, kind: 'cut_logged', from: cutter.status, to: cutter.status, note: `${body.minutes} min, ${body.outcome}` })]
+  if (broken) {
+    events.push(eventRow({ ...event, kind: 'flagged_broken', from: cutter.status, to: 'retired', note: body.note ?? 'Broke during a logged cut' }))
+  }
+  const written = await db
+    .with('cutter', (db) => db.updateTable('cutters')
+      .set({
+        life_used: sql`least(life_used + ${added}, ${MAX_LIVES})`,
+        minutes_this_life: sql`minutes_this_life + ${body.minutes}`,
+        minutes_total: sql`minutes_total + ${body.minutes}`,
+        updated_at: new Date(),
+        ...(broken && { status: 'retired', machine_id: null, retired_reason: 'broken', flagged: 'broken', flagged_at: new Date() }),
+      })
+      .where('shop_id', '=', user.shopId).where('id', '=', id)
+      // Still the life and status the figures were worked out for.
+      .where('status', '=', cutter.status).where('regrind_count', '=', cutter.regrind_count).where('life_scale', '=', cutter.life_scale)
+      .returning(['life_used', 'minutes_total', 'status']))
+    // The log (its trigger keeps the roll-ups) and the events, only when the cutter row was updated.
+    .with('log', (db) => db.insertInto('cut_logs').columns([
+      'shop_id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
+      'regrind_count', 'rpm', 'feed_mm_per_min', 'outcome', 'note', 'idempotency_key', 'cut_at',
+    ]).expression((eb) => eb.selectFrom('cutter').select([
+      eb.val(user.shopId).as('shop_id'), eb.val(id).as('cutter_id'), eb.val(machineId).as('machine_id'), eb.val(user.id).as('operator_id'),
+      eb.val(cutter.material_id!).as('material_id'), eb.val(body.minutes).as('minutes'), eb.val(cutter.wear_factor!).as('wear_factor'),
+      eb.val(added).as('life_added'), eb.val(cutter.regrind_count).as('regrind_count'), eb.val(body.rpm ?? null).as('rpm'),
+      eb.val(body.feedMmPerMin ?? null).as('feed_mm_per_min'), eb.val(body.outcome).as('outcome'), eb.val(body.note ?? '').as('note'),
+      eb.val(body.idempotencyKey).as('idempotency_key'), eb.val(cutAt).as('cut_at'),
+    ])).returning(LOG_COLUMNS))
+    .with('event', (db) => db.insertInto('cutter_events').columns(EVENT_COLUMNS).expression((eb) => {
+      const row = (e: typeof events[number]) => eb.selectFrom('cutter').select(EVENT_COLUMNS.map((c) => eb.cast(eb.val(e[c]), EVENT_TYPES[c]).as(c)))
+      return events.slice(1).reduce((q, e) => q.unionAll(row(e)), row(events[0]!))
+    }).returning('id'))
+    .selectFrom(['log', 'cutter'])
+    .selectAll('log')
+    .select(['cutter.life_used', 'cutter.minutes_total', 'cutter.status'])
+    .modifyEnd(PREPARED)
+    .executeTakeFirst()
+  if (!written) return 'stale'
+  const { life_used, minutes_total, status, ...log } = written
+  return { replay: false, log, totals: { life_used, minutes_total, status } }
+}
+
+async function writeCut(db: Db, user: SessionUser, id: number, body: CutLogInput, cutAt: Date) {
+  for (let attempt = 0; attempt < 5; attempt++) {
+    // Read again when the cutter changed since it was read, or when the same key was stored
+    // meanwhile (a retry racing its first try, or two app instances: the unique index lets one
+    // in). The next read finds that log and answers it, or 409 when it belongs to another cutter.
+    const result = await tryLogCut(db, user, id, body, cutAt).catch((err: { code?: string }) => {
+      if (err.code === '23505') return 'stale' as const
+      throw err
+    })
+    if (result !== 'stale') return result
+  }
+  throw createError({ statusCode: 409, statusMessage: 'The cutter kept changing while the cut was being logged. Send the log again.' })
+}
+
+/**
+ * Logs a cut of one of the user's shop's cutters (404 when it is not the shop's) and answers the
+ * log, the cutter's new totals and the cutter as the pages show it; `replay` when the key was
+ * sent before, in which case nothing is written again.
+ */
+export async function logCut(db: Db, user: SessionUser, cutterId: number, body: CutLogInput) {
+  const cutAt = body.cutAt ? new Date(body.cutAt) : new Date()
+  if (cutAt.getTime() > Date.now() + 5 * 60_000) badField('cutAt', 'is in the future; check the phone\'s clock')
+
+  const result = await writeCut(db, user, cutterId, body, cutAt)
+  const l = result.log
+  return {
+    replay: result.replay,
+    log: {
+      id: l.id, cutterId: l.cutter_id, machineId: l.machine_id, operatorId: l.operator_id, materialId: l.material_id,
+      minutes: l.minutes, wearFactor: l.wear_factor, lifeAdded: l.life_added, rpm: l.rpm, feedMmPerMin: l.feed_mm_per_min,
+      outcome: l.outcome, note: l.note, idempotencyKey: l.idempotency_key, cutAt: l.cut_at,
+    },
+    lifeUsed: result.totals.life_used,
+    minutesTotal: result.totals.minutes_total,
+    status: result.totals.status,
+    cutter: await requireCutterView(db, user.shopId, { id: cutterId }),
+  }
+}
