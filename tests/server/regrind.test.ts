@@ -68,7 +68,7 @@ describe('the round trip: due list, batch, send, receive back', () => {
     expect(sent.body.batch.status).toBe('sent')
     expect(sent.body.batch.sentAt).toBeTruthy()
     expect(sent.body.mail).toEqual({ sent: true, to: fx.supplier.email, problem: null })
-    const mail = await waitForMail(fx.supplier.email, `batch ${batch.id}`)
+    const mail = await waitForMail(fx.supplier.email, `batch ${batch.number}`)
     expect(mail.text).toContain(worn!.code)
     expect(mail.text).toContain(dull!.code)
     for (const c of [worn!, dull!]) {
