@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
     dueCutters(db, user.shopId),
     db.selectFrom('cut_logs')
       .select([(eb) => eb.fn.countAll<number>().as('logs'), (eb) => eb.fn.coalesce(eb.fn.sum<number>('minutes'), sql<number>`0`).as('minutes')])
-      .where('shop_id', '=', user.shopId)
+      .where('shop_id', '=', user.shopId).where('voided_at', 'is', null)
       .where('cut_at', '>=', sql<Date>`now() - interval '30 days'`)
       .executeTakeFirstOrThrow(),
     db.selectFrom('cutter_events as e')

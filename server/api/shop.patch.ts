@@ -16,6 +16,10 @@ export default defineEventHandler(async (event) => {
     ...(b.orderCostCents !== undefined && { order_cost_cents: b.orderCostCents }),
     ...(b.holdingRate !== undefined && { holding_rate: b.holdingRate }),
     ...(b.labourRateCentsPerHour !== undefined && { labour_rate_cents_per_hour: b.labourRateCentsPerHour }),
+    ...(b.address !== undefined && { address: b.address }),
+    ...(b.phone !== undefined && { phone: b.phone }),
+    ...(b.replyEmail !== undefined && { reply_email: b.replyEmail }),
+    ...(b.currency !== undefined && { currency: b.currency }),
   }
   if (Object.keys(set).length) await useDb().updateTable('shops').set(set).where('id', '=', owner.shopId).execute()
   return shopSettings(useDb(), owner.shopId)

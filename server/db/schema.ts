@@ -1,7 +1,7 @@
 // The one Database type, composed from a file of tables per room.
 import type { AuthTokensTable, LoginAttemptsTable, ShopMailsTable, ShopsTable, UserSessionsTable, UsersTable } from './tables/shop'
 import type {
-  ChipLoadsTable, CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable,
+  ChipLoadsTable, CutLogChangesTable, CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable,
 } from './tables/spindle'
 import type {
   CutterTypesTable, PurchaseOrderLinesTable, PurchaseOrdersTable, RegrindBatchItemsTable, RegrindBatchesTable,
@@ -33,6 +33,7 @@ export interface Database {
   cutters: CuttersTable
   uploads: UploadsTable
   cut_logs: CutLogsTable
+  cut_log_changes: CutLogChangesTable
   cutter_events: CutterEventsTable
   regrind_batches: RegrindBatchesTable
   regrind_batch_items: RegrindBatchItemsTable

@@ -3,7 +3,7 @@ import type { CutOutcome } from './spindle'
 
 export type { CutOutcome }
 export type CutterEventKind = 'received' | 'loaded' | 'returned' | 'cut_logged' | 'flagged_dull' | 'flagged_broken'
-  | 'sent_to_regrind' | 'reground' | 'retired' | 'lost' | 'found' | 'edited'
+  | 'sent_to_regrind' | 'reground' | 'retired' | 'lost' | 'found' | 'edited' | 'cut_corrected' | 'cut_voided'
 
 export const EVENT_LABELS: Record<CutterEventKind, string> = {
   received: 'Received into the crib',
@@ -18,6 +18,8 @@ export const EVENT_LABELS: Record<CutterEventKind, string> = {
   lost: 'Marked lost',
   found: 'Found',
   edited: 'Changed',
+  cut_corrected: 'Cut log corrected',
+  cut_voided: 'Cut log voided',
 }
 
 export const OUTCOME_LABELS: Record<CutOutcome, string> = {

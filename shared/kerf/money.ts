@@ -21,5 +21,23 @@ export function formatMoney(cents: number): string {
   return `${sign}${Math.floor(abs / 100)}.${String(abs % 100).padStart(2, '0')}`
 }
 
-/** "$42.50" for tables. */
-export const showMoney = (cents: number | null | undefined) => (cents === null || cents === undefined ? '—' : `$${formatMoney(cents)}`)
+/** The currencies a shop may show its money in; every one has two decimals (ISO 4217 minor unit 2). */
+export const CURRENCIES = ['USD', 'CAD', 'EUR', 'GBP', 'AUD'] as const
+export type Currency = (typeof CURRENCIES)[number]
+export const CURRENCY_LABELS: Record<Currency, string> = {
+  USD: 'US dollar (USD)', CAD: 'Canadian dollar (CAD)', EUR: 'Euro (EUR)', GBP: 'Pound sterling (GBP)', AUD: 'Australian dollar (AUD)',
+}
+
+const formats = new Map<Currency, Intl.NumberFormat>()
+
+/** "$1,234.56", "CA$1,234.56", "€1,234.56" for tables and e-mails: integer cents in the shop's currency. */
+export function showMoney(cents: number | null | undefined, currency: Currency = 'USD'): string {
+  if (cents === null || cents === undefined) return '—'
+  let format = formats.get(currency)
+  if (!format) {
+    format = new Intl.NumberFormat('en', { style: 'currency', currency, minimumFractionDigits: 2, maximumFractionDigits: 2 })
+    formats.set(currency, format)
+  }
+  // Whole cents divided by 100 are exact to the two decimals shown.
+  return format.format(Math.round(cents) / 100)
+}

@@ -42,3 +42,8 @@ export const UserUpdateBody = z.object({
   role: z.enum(ROLES).optional(),
   active: z.boolean().optional(),
 })
+
+export const PasswordChangeBody = z.object({
+  currentPassword: z.string({ error: 'enter your current password' }).min(1, { error: 'enter your current password' }).max(200, { error: 'use at most 200 characters' }),
+  newPassword: Password,
+}).refine((b) => b.currentPassword !== b.newPassword, { error: 'choose a password different from the current one', path: ['newPassword'] })

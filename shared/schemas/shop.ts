@@ -1,10 +1,12 @@
 // The shop's own settings, shared by the settings page and its route.
 import { z } from 'zod'
 import { isValidTimeZone } from '../kerf/report-schedule'
+import { CURRENCIES } from '../kerf/money'
 import { Email } from './auth'
 
 export const LIFE_THRESHOLD_FLOOR = 0.5
 export const REGRIND_FRACTION_FLOOR = 0.1
+const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v)
 
 export const ShopUpdateBody = z.object({
   name: z.string().trim().min(1, { error: 'enter the shop\'s name' }).max(120).optional(),
@@ -26,4 +28,11 @@ export const ShopUpdateBody = z.object({
   labourRateCentsPerHour: z.number({ error: 'enter the labour rate' }).int({ error: 'must be whole cents' })
     .min(0, { error: 'must be 0 or more' }).max(1_000_000, { error: 'must be at most 10,000.00 an hour' }).nullable().optional(),
   holdingRate: z.number({ error: 'enter a percentage like 25' }).min(0.001, { error: 'must be at least 0.1 %' }).max(5, { error: 'at most 500 %' }).optional(),
+  // Printed on purchase orders and regrind batches: lines as typed, trailing spaces dropped.
+  address: z.string({ error: 'enter the postal address' }).max(500, { error: 'use at most 500 characters' })
+    .transform((s) => s.split(/\r?\n/).map((l) => l.trim()).filter(Boolean).join('\n')).optional(),
+  phone: z.preprocess(blankToNull, z.string().trim().max(40, { error: 'use at most 40 characters' })
+    .regex(/^[0-9+()./\- x]+$/i, { error: 'use digits, spaces and + ( ) - . only' }).nullish()),
+  replyEmail: z.preprocess(blankToNull, Email.nullish()),
+  currency: z.enum(CURRENCIES, { error: `choose one of ${CURRENCIES.join(', ')}` }).optional(),
 })

@@ -56,3 +56,21 @@ export const FlagFields = z.object({
   kind: z.enum(FLAG_KINDS, { error: 'choose dull or broken' }),
   note: z.string().trim().max(CUT_LIMITS.noteChars, { error: NOTE_ERROR }).optional(),
 })
+
+/** Cut-log ids are PostgreSQL bigints; the app's own stay far below 2^53. */
+export const CutLogIdParams = z.object({ id: z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER) })
+
+const Reason = z.string({ error: 'say why, for whoever reads the history' }).trim()
+  .min(1, { error: 'say why, for whoever reads the history' }).max(500, { error: 'use at most 500 characters' })
+
+export const CutLogCorrectionBody = z.object({
+  minutes: CutLogBody.shape.minutes.optional(),
+  materialId: CutLogBody.shape.materialId.optional(),
+  outcome: CutLogBody.shape.outcome.optional(),
+  note: z.string().trim().max(2000, { error: 'use at most 2000 characters' }).optional(),
+  reason: Reason,
+}).refine((b) => b.minutes !== undefined || b.materialId !== undefined || b.outcome !== undefined || b.note !== undefined,
+  { error: 'change at least one of minutes, material, outcome or note', path: ['minutes'] })
+export type CutLogCorrectionInput = z.input<typeof CutLogCorrectionBody>
+
+export const CutLogVoidBody = z.object({ reason: Reason })

@@ -12,6 +12,7 @@ import path from 'node:path'
 import fc from 'fast-check'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { HELIXES, PROFILES, TOOL_MATERIALS } from '../../shared/kerf/geometry'
+import { MATERIAL_FAMILIES } from '../../shared/kerf/materials'
 import { ROLES } from '../../shared/kerf/roles'
 import { CUT_OUTCOMES, FLAG_KINDS } from '../../shared/kerf/spindle'
 import { changedTables, shopChecksum } from '../support/checksum'
@@ -89,6 +90,12 @@ const machineFields: Fields = {
   bedXMm: num(0.1, 100_000, { optional: true, nullable: true }),
   bedYMm: num(0.1, 100_000, { optional: true, nullable: true }),
 }
+const materialFields: Fields = {
+  name: str(80, { min: 1 }),
+  family: oneOf(MATERIAL_FAMILIES),
+  wearFactor: num(0.05, 20),
+  common: bool({ optional: true }),
+}
 const supplierFields: Fields = {
   name: str(120, { min: 1 }),
   email: email({ optional: true, nullable: true }),
@@ -124,6 +131,7 @@ const FUZZ: Record<string, FuzzEntry> = {
     fields: { email: email(), name: str(120, { min: 1 }), role: oneOf(ROLES) },
     valid: () => ({ email: `fuzz-invite-${randomUUID().slice(0, 8)}@example.com`, name: 'Fuzz Invitee', role: 'operator' }),
   },
+  'POST /api/me/password': { fields: { currentPassword: str(200, { min: 1, trim: false }), newPassword: str(200, { min: 10, trim: false }) }, valid: () => ({ currentPassword: 'wrong-on-purpose', newPassword: 'a-fuzzed-new-password' }) },
   'PATCH /api/me': { fields: { name: str(120, { min: 1, optional: true }), lengthUnit: oneOf(['mm', 'in'], { optional: true }) }, valid: () => ({ name: 'Fuzz Owner Renamed' }) },
   'PATCH /api/users/[id]': { fields: { role: oneOf(ROLES, { optional: true }), active: bool({ optional: true }) }, valid: () => ({ role: 'crib_manager' }), params: (_, s) => ({ id: s.ids.operator }) },
   'PATCH /api/shop': {
@@ -139,6 +147,11 @@ const FUZZ: Record<string, FuzzEntry> = {
       holdingRate: num(0.001, 5, { optional: true }),
       shiftMinutes: int(60, 1440, { optional: true }),
       labourRateCentsPerHour: int(0, 1_000_000, { optional: true, nullable: true }),
+      address: str(500, { optional: true, trim: false }),
+      phone: custom(fc.constantFrom('call me', '555 0100 ext. nine', '<b>1</b>', '1'.repeat(41)), { optional: true, nullable: true }),
+      replyEmail: email({ optional: true, nullable: true }),
+      // Upper case already, so oneOf's upper-cased wrong values would be none: the wrong ones listed here.
+      currency: custom(fc.constantFrom('usd', 'JPY', ' USD', 'EURO', 'US$', 840), { optional: true }),
     },
     valid: () => ({ name: 'Fuzz shop renamed' }),
   },
@@ -215,6 +228,22 @@ const FUZZ: Record<string, FuzzEntry> = {
     params: (r) => ({ id: r.cutters.spindle.id }),
     emptyIsValid: true,
   },
+  'PATCH /api/cut-logs/[id]': {
+    fields: {
+      minutes: num(0.01, 1440, { optional: true }),
+      materialId: id({ optional: true }),
+      outcome: oneOf(CUT_OUTCOMES, { optional: true }),
+      note,
+      reason: str(500, { min: 1 }),
+    },
+    valid: () => ({ minutes: 7, reason: 'Fuzz correction' }),
+    params: (r) => ({ id: r.cutLogId }),
+  },
+  'POST /api/cut-logs/[id]/void': { fields: { reason: str(500, { min: 1 }) }, valid: () => ({ reason: 'Fuzz void' }), params: (r) => ({ id: r.cutLogId }) },
+  'POST /api/materials': { fields: materialFields, valid: () => ({ name: uniqueName('material'), family: 'wood', wearFactor: 1.1 }) },
+  'PATCH /api/materials/[id]': { fields: partial(materialFields), valid: () => ({ wearFactor: 1.3 }), params: (r) => ({ id: r.materialId }) },
+  'POST /api/materials/[id]/retire': { pathOnly: true, params: (r) => ({ id: r.materialId }) },
+  'POST /api/materials/[id]/restore': { pathOnly: true, params: (r) => ({ id: r.materialId }) },
   'POST /api/cutters/[id]/found': { fields: { note }, valid: () => ({ note: 'Fuzz' }), params: (r) => ({ id: r.cutters.lost.id }), emptyIsValid: true },
   'POST /api/cutters/[id]/lost': { fields: { note }, valid: () => ({ note: 'Fuzz' }), params: (r) => ({ id: r.cutters.crib.id }), emptyIsValid: true },
   'POST /api/cutters/[id]/unflag': { fields: { note }, valid: () => ({ note: 'Fuzz' }), params: (r) => ({ id: r.cutters.dull.id }), emptyIsValid: true },
@@ -281,6 +310,7 @@ const QUERY_KEYS: Record<string, string[]> = {
   'GET /api/cutter-types': ['archived'],
   'GET /api/suppliers': ['archived'],
   'GET /api/machines': ['retired'],
+  'GET /api/materials': ['retired'],
   'GET /api/feeds': ['typeId', 'materialId', 'machineId', 'cutterId', 'depthMm'],
   'GET /api/bit-choice': ['materialId', 'cut', 'thicknessMm', 'machineId', 'narrowestMm'],
   'GET /api/labels': ['ids', 'typeId', 'orderId'],

@@ -69,7 +69,7 @@ describe('the round trip: due list, batch, send, receive back', () => {
     expect(sent.body.batch.status).toBe('sent')
     expect(sent.body.batch.sentAt).toBeTruthy()
     expect(sent.body.mail).toEqual({ sent: true, to: fx.supplier.email, problem: null })
-    const mail = await waitForMail(fx.supplier.email, `batch ${batch.id}`)
+    const mail = await waitForMail(fx.supplier.email, `batch ${batch.number}`)
     expect(mail.text).toContain(worn!.code)
     expect(mail.text).toContain(dull!.code)
     for (const c of [worn!, dull!]) {
@@ -162,10 +162,11 @@ describe('one batch at a time', () => {
 
   it('a cutter in two batches: the second draft and an added cutter answer 409', async () => {
     const [c, d] = await fx.add([{ lifeUsed: 0.95 }, { lifeUsed: 0.95 }])
-    const first = (await draft(shop.crib, [c!.id])).body.batch.id
+    const firstBatch = (await draft(shop.crib, [c!.id])).body.batch
+    const first = firstBatch.id
     const clash = await draft(shop.crib, [d!.id, c!.id])
     expect(clash.status).toBe(409)
-    expect(clash.body.message).toContain(`${c!.code} (batch ${first})`)
+    expect(clash.body.message).toContain(`${c!.code} (batch ${firstBatch.number})`)
     const second = (await draft(shop.crib, [d!.id])).body.batch.id
     expect((await shop.crib.patch(`/api/regrind/batches/${second}`, { addCutterIds: [c!.id] })).status).toBe(409)
     // Once the first draft is cancelled the cutter is free again.

@@ -21,6 +21,8 @@ export interface ShopRecords {
   uploadId: number
   /** An NC program calling T1, read at the default machine settings. */
   programId: number
+  /** A cut logged by the owner on the cutter in the machine. */
+  cutLogId: number
 }
 
 export async function addShopRecords(shopId: number, ownerId: number): Promise<ShopRecords> {
@@ -56,6 +58,10 @@ export async function addShopRecords(shopId: number, ownerId: number): Promise<S
       shop_id: shopId, storage_key: `photos/${shopId}/${randomUUID()}.png`, kind: 'photo', content_type: 'image/png', size_bytes: 1,
       uploaded_by: ownerId,
     }).returning('id').executeTakeFirstOrThrow()
+    const cutLog = await db.insertInto('cut_logs').values({
+      shop_id: shopId, cutter_id: spindle!.id, machine_id: fixture.machineId, operator_id: ownerId, material_id: material.id,
+      minutes: 12, wear_factor: 1, life_added: 0.02, outcome: 'clean', idempotency_key: `records-${randomUUID()}`,
+    }).returning('id').executeTakeFirstOrThrow()
     const tool = { tool: 1, feedDistanceMm: 100, plungeDistanceMm: 5, feedMinutes: 0.1, estimatedMinutes: 0.12, rapidMinutes: 0.01, maxDepthMm: 5, spindleRpm: [18000], feedsMmPerMin: [1000] }
     const program = await db.insertInto('nc_programs').values({
       shop_id: shopId, name: 'Records program', size_bytes: 40, storage_key: `programs/${shopId}/${randomUUID()}.nc`, units: 'mm',
@@ -64,6 +70,7 @@ export async function addShopRecords(shopId: number, ownerId: number): Promise<S
     }).returning('id').executeTakeFirstOrThrow()
     return {
       programId: program.id,
+      cutLogId: Number(cutLog.id),
       supplierId: fixture.supplier.id, machineId: fixture.machineId, materialId: material.id, typeId: fixture.typeId, chipLoadId: chipLoad.id,
       cutters: { crib: crib!, spindle: spindle!, lost: lost!, dull: dull!, away: away! },
       draftOrderId: draft!.id, sentOrder: { id: sent!.id, lineId: sentLine!.id },

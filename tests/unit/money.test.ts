@@ -25,7 +25,15 @@ describe('cents to text', () => {
     expect(formatMoney(4250)).toBe('42.50')
     expect(formatMoney(5)).toBe('0.05')
     expect(formatMoney(0)).toBe('0.00')
-    expect(showMoney(123456)).toBe('$1234.56')
     expect(showMoney(null)).toBe('—')
+  })
+
+  it('shows the shop\'s currency with its symbol and thousands separators', () => {
+    // ISO 4217: all five have a minor unit of 2; the symbols are CLDR's English ones (from memory).
+    expect(showMoney(123456)).toBe('$1,234.56')
+    expect(showMoney(123456, 'CAD')).toBe('CA$1,234.56')
+    expect(showMoney(123456, 'AUD')).toBe('A$1,234.56')
+    expect(showMoney(5, 'EUR')).toBe('€0.05')
+    expect(showMoney(-250000, 'GBP')).toBe('-£2,500.00')
   })
 })

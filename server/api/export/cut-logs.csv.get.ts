@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
     .leftJoin('users as u', (j) => j.onRef('u.id', '=', 'l.operator_id').onRef('u.shop_id', '=', 'l.shop_id'))
     .select(['l.cut_at', 'c.code', 't.name as type', 'm.name as machine', 'u.name as operator', 'mt.name as material',
       'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note'])
-    .where('l.shop_id', '=', user.shopId)
+    .where('l.shop_id', '=', user.shopId).where('l.voided_at', 'is', null)
     .where('l.cut_at', '>=', parseISO(`${from}T00:00:00Z`))
     .where('l.cut_at', '<', addHours(toStart, DAY_HOURS))
     .orderBy('l.cut_at').orderBy('l.id')

@@ -8,7 +8,7 @@ export default defineEventHandler(async (event) => {
   await transaction(async (tx) => {
     const order = await lockOrder(tx, user.shopId, id)
     if (order.status !== 'draft') {
-      throw createError({ statusCode: 409, statusMessage: `${orderNumber(id)} has been ${order.status.replace('_', ' ')}; only drafts can be edited.` })
+      throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} has been ${order.status.replace('_', ' ')}; only drafts can be edited.` })
     }
     if (body.note !== undefined) await tx.updateTable('purchase_orders').set({ note: body.note }).where('shop_id', '=', user.shopId).where('id', '=', id).execute()
     if (body.lines) await replaceOrderLines(tx, user.shopId, id, body.lines)

@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
     .leftJoin('suppliers as s', (j) => j.onRef('s.id', '=', 'o.supplier_id').onRef('s.shop_id', '=', 'o.shop_id'))
     .leftJoin('purchase_order_lines as l', (j) => j.onRef('l.order_id', '=', 'o.id').onRef('l.shop_id', '=', 'o.shop_id'))
     .select([
-      'o.id', 'o.status', 'o.created_at', 'o.sent_at', 'o.received_at', 's.name as supplier_name',
+      'o.id', 'o.number', 'o.status', 'o.created_at', 'o.sent_at', 'o.received_at', 's.name as supplier_name',
       sql<number>`count(l.id)::int`.as('line_count'),
       sql<number>`coalesce(sum(l.quantity), 0)::bigint`.as('quantity'),
       sql<number>`coalesce(sum(l.received_quantity), 0)::bigint`.as('received_quantity'),
@@ -21,7 +21,7 @@ export default defineEventHandler(async (event) => {
     .limit(500)
     .execute()
   return rows.map((o) => ({
-    id: o.id, number: orderNumber(o.id), status: o.status, supplierName: o.supplier_name, createdAt: o.created_at, sentAt: o.sent_at,
+    id: o.id, number: orderNumber(o.number), status: o.status, supplierName: o.supplier_name, createdAt: o.created_at, sentAt: o.sent_at,
     receivedAt: o.received_at, lineCount: o.line_count, quantity: o.quantity, receivedQuantity: o.received_quantity, totalCents: Number(o.total_cents),
   }))
 })

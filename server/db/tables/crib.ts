@@ -55,6 +55,10 @@ export interface PurchaseOrdersTable {
   id: Generated<number>
   shop_id: number
   supplier_id: number | null
+  /** Counted per shop by a trigger: the shop's first order is 1. */
+  number: Generated<number>
+  /** The shop's address as it was when the order was sent. */
+  ship_to: string | null
   status: Generated<'draft' | 'sent' | 'partly_received' | 'received' | 'cancelled'>
   note: Generated<string>
   created_by: number | null
@@ -77,6 +81,10 @@ export interface RegrindBatchesTable {
   id: Generated<number>
   shop_id: number
   supplier_id: number | null
+  /** Counted per shop by a trigger: the shop's first batch is 1. */
+  number: Generated<number>
+  /** The shop's address as it was when the batch was sent. */
+  ship_to: string | null
   status: Generated<'draft' | 'sent' | 'received' | 'cancelled'>
   note: Generated<string>
   created_by: number | null

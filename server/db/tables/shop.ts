@@ -2,6 +2,7 @@
 import type { ColumnType, Generated } from 'kysely'
 import type { Role } from '../../../shared/kerf/roles'
 import type { LengthUnit } from '../../../shared/kerf/units'
+import type { Currency } from '../../../shared/kerf/money'
 
 export type { LengthUnit, Role }
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>
@@ -22,6 +23,14 @@ export interface ShopsTable {
   /** Integer cents per hour of hand-finishing, for the cost of cleanup minutes; null until set. */
   labour_rate_cents_per_hour: number | null
   review_interval_days: Generated<number>
+  /** Postal address, lines separated by newlines; printed on orders and regrind batches. */
+  address: Generated<string>
+  phone: string | null
+  /** Where suppliers reply (Reply-To of the shop's orders and batches). */
+  reply_email: string | null
+  currency: Generated<Currency>
+  last_order_number: Generated<number>
+  last_batch_number: Generated<number>
   created_at: CreatedAt
 }
 

@@ -40,6 +40,7 @@ export interface MaterialsTable {
   wear_factor: number
   common: Generated<boolean>
   active: Generated<boolean>
+  retired_at: Date | null
   created_at: Stamp
 }
 
@@ -103,6 +104,22 @@ export interface CutLogsTable {
   idempotency_key: string
   cut_at: Stamp
   created_at: Stamp
+  /** A voided log stays in the history and counts nowhere. */
+  voided_at: Date | null
+}
+
+/** Each correction or void of a cut log: who, why, and the log's figures before and after. */
+export interface CutLogChangesTable {
+  id: Generated<string>
+  shop_id: number
+  cut_log_id: string
+  cutter_id: number
+  kind: 'corrected' | 'voided'
+  actor_id: number | null
+  reason: string
+  before: unknown
+  after: unknown
+  created_at: Generated<Date>
 }
 
 export interface CutterEventsTable {

@@ -23,6 +23,7 @@ interface HistoryRow {
   feed_mm_per_min: number | null
   life_added: number | null
   logged_at: Date | null
+  voided: boolean | null
 }
 
 export async function cutterHistory(db: Queryable, shopId: number, cutterId: number, page: number, pageSize: number) {
@@ -34,14 +35,15 @@ export async function cutterHistory(db: Queryable, shopId: number, cutterId: num
     sql<HistoryRow>`
       select 'event' as source, e.id, e.created_at as at, e.kind, e.from_status, e.to_status, m.name as machine_name,
         u.name as who, e.photo_id, e.note, null as material_name, null::numeric as minutes, null as outcome,
-        null::integer as rpm, null::numeric as feed_mm_per_min, null::numeric as life_added, null::timestamptz as logged_at
+        null::integer as rpm, null::numeric as feed_mm_per_min, null::numeric as life_added, null::timestamptz as logged_at,
+        null::boolean as voided
       from cutter_events e
       left join users u on u.id = e.actor_id and u.shop_id = e.shop_id
       left join machines m on m.id = e.machine_id and m.shop_id = e.shop_id
       where e.shop_id = ${shopId} and e.cutter_id = ${cutterId} and e.kind <> 'cut_logged'
       union all
       select 'cut', l.id, l.cut_at, null, null, null, m.name, u.name, null, l.note, mt.name, l.minutes, l.outcome,
-        l.rpm, l.feed_mm_per_min, l.life_added, l.created_at
+        l.rpm, l.feed_mm_per_min, l.life_added, l.created_at, l.voided_at is not null
       from cut_logs l
       join materials mt on mt.id = l.material_id and mt.shop_id = l.shop_id
       left join users u on u.id = l.operator_id and u.shop_id = l.shop_id
@@ -70,7 +72,7 @@ export async function cutterHistory(db: Queryable, shopId: number, cutterId: num
       : {
           source: 'cut' as const, id: `c${r.id}`, at: r.at, who: r.who, machineName: r.machine_name, note: r.note,
           materialName: r.material_name!, minutes: r.minutes!, outcome: r.outcome!, rpm: r.rpm, feedMmPerMin: r.feed_mm_per_min,
-          lifeAdded: r.life_added!, loggedAt: r.logged_at!,
+          lifeAdded: r.life_added!, loggedAt: r.logged_at!, voided: r.voided === true,
         }),
   }
 }

@@ -18,14 +18,15 @@ import { createCutters } from './receiving'
 export async function sendOrder(db: Db, user: SessionUser, id: number) {
   await db.transaction().execute(async (tx) => {
     const order = await lockOrder(tx, user.shopId, id)
-    if (order.status !== 'draft') throw createError({ statusCode: 409, statusMessage: `${orderNumber(id)} was already sent.` })
+    if (order.status !== 'draft') throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} was already sent.` })
     const view = await orderView(tx, user.shopId, id)
     if (!view.supplier?.email) {
       throw createError({ statusCode: 400, statusMessage: 'The supplier has no e-mail address. Add one in Suppliers, then send again.' })
     }
     const shop = await orderLetterhead(tx, user.shopId)
     const sentAt = new Date()
-    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: sentAt })
+    // The address the order went out with stays on it, whatever the shop's address becomes.
+    await tx.updateTable('purchase_orders').set({ status: 'sent', sent_at: sentAt, ship_to: shop.address })
       .where('shop_id', '=', user.shopId).where('id', '=', id).execute()
     // The PDF the supplier gets is the one the order page downloads from now on.
     const pdf = await orderPdf({ ...view, status: 'sent', sentAt }, shop)
@@ -49,7 +50,7 @@ export async function receiveOrder(db: Db, user: SessionUser, id: number, body: 
   const created = await db.transaction().execute(async (tx) => {
     const order = await lockOrder(tx, user.shopId, id)
     if (order.status !== 'sent' && order.status !== 'partly_received') {
-      throw createError({ statusCode: 409, statusMessage: `${orderNumber(id)} is ${order.status.replace('_', ' ')}: only a sent order can be received.` })
+      throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} is ${order.status.replace('_', ' ')}: only a sent order can be received.` })
     }
     const lines = await tx.selectFrom('purchase_order_lines as l')
       .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'l.type_id').onRef('t.shop_id', '=', 'l.shop_id'))
@@ -60,14 +61,14 @@ export async function receiveOrder(db: Db, user: SessionUser, id: number, body: 
     const cutters = []
     for (const input of body.lines) {
       const line = byId.get(input.lineId)
-      if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(id)}` })
+      if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(order.number)}` })
       const open = line.quantity - line.received_quantity
       if (input.quantity > open) {
         fieldError({ [`line-${line.id}`]: `at most ${open}` }, { message: `lines: only ${open} of ${line.name} are still to come on this order` })
       }
       if (input.quantity === 0) continue
       cutters.push(...Array.from({ length: input.quantity }, () => ({
-        typeId: line.type_id, diameterMm: input.diameterMm ?? line.cutting_diameter_mm, orderLineId: line.id, note: `Received on ${orderNumber(id)}`,
+        typeId: line.type_id, diameterMm: input.diameterMm ?? line.cutting_diameter_mm, orderLineId: line.id, note: `Received on ${orderNumber(order.number)}`,
       })))
       await tx.updateTable('purchase_order_lines').set({ received_quantity: line.received_quantity + input.quantity })
         .where('shop_id', '=', user.shopId).where('id', '=', line.id).execute()

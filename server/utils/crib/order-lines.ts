@@ -23,7 +23,7 @@ export async function replaceOrderLines(tx: Tx, shopId: number, orderId: number,
 
 /** The order's row, locked; 404 when it is not the shop's. */
 export async function lockOrder(tx: Tx, shopId: number, id: number) {
-  const order = await tx.selectFrom('purchase_orders').select(['id', 'status', 'supplier_id'])
+  const order = await tx.selectFrom('purchase_orders').select(['id', 'number', 'status', 'supplier_id'])
     .where('shop_id', '=', shopId).where('id', '=', id).forUpdate().executeTakeFirst()
   if (!order) notFound('purchase order')
   return order

@@ -29,7 +29,7 @@ export async function sendRegrindBatch(db: Db, user: SessionUser, id: number, em
       .forUpdate('c')
       .execute()
     if (!cutters.length) {
-      throw createError({ statusCode: 409, statusMessage: `Batch ${id} has no cutters. Add the cutters to send before sending it.` })
+      throw createError({ statusCode: 409, statusMessage: `Batch ${batch.number} has no cutters. Add the cutters to send before sending it.` })
     }
     const changed = cutters.filter((c) => !(DUE_STATUSES as readonly string[]).includes(c.status))
     if (changed.length) {
@@ -51,10 +51,11 @@ export async function sendRegrindBatch(db: Db, user: SessionUser, id: number, em
         .execute()
       await recordEvent(tx, {
         shopId: user.shopId, cutterId: c.id, kind: 'sent_to_regrind', from: c.status, to: 'at_regrind',
-        machineId: c.machine_id, actorId: user.id, note: `Batch ${id}`,
+        machineId: c.machine_id, actorId: user.id, note: `Batch ${batch.number}`,
       })
     }
-    await tx.updateTable('regrind_batches').set({ status: 'sent', sent_at: now })
+    const { address } = await tx.selectFrom('shops').select('address').where('id', '=', user.shopId).executeTakeFirstOrThrow()
+    await tx.updateTable('regrind_batches').set({ status: 'sent', sent_at: now, ship_to: address })
       .where('shop_id', '=', user.shopId).where('id', '=', id)
       .execute()
   })
@@ -120,7 +121,7 @@ async function receiveItems(tx: Tx, user: SessionUser, batchId: number, items: z
           .where('shop_id', '=', shopId).where('id', '=', c.id).execute()
         await recordEvent(tx, {
           shopId, cutterId: c.id, kind: 'retired', from: 'at_regrind', to: 'retired', actorId: user.id,
-          note: `Scrapped by the regrinder: ${item.scrapReason} (batch ${batchId})`,
+          note: `Scrapped by the regrinder: ${item.scrapReason} (batch ${batch.number})`,
         })
       }
       await tx.updateTable('regrind_batch_items').set({ result: 'retired', scrap_reason: item.scrapReason, cost_cents: item.costCents ?? 0, received_at: now })
@@ -138,7 +139,7 @@ async function receiveItems(tx: Tx, user: SessionUser, batchId: number, items: z
       }).where('shop_id', '=', shopId).where('id', '=', c.id).execute()
       await recordEvent(tx, {
         shopId, cutterId: c.id, kind: 'reground', from: 'at_regrind', to: 'in_crib', actorId: user.id,
-        note: `Reground to ${diameter.toFixed(3)} mm (batch ${batchId})`,
+        note: `Reground to ${diameter.toFixed(3)} mm (batch ${batch.number})`,
       })
       outcome.reground++
     } else {
@@ -148,8 +149,8 @@ async function receiveItems(tx: Tx, user: SessionUser, batchId: number, items: z
       await recordEvent(tx, {
         shopId, cutterId: c.id, kind: 'retired', from: 'at_regrind', to: 'retired', actorId: user.id,
         note: verdict.cause === 'undersize'
-          ? `Came back at ${diameter.toFixed(3)} mm, below the minimum usable ${c.min_usable_diameter_mm.toFixed(3)} mm (batch ${batchId})`
-          : `Came back from a regrind past the ${c.max_regrinds} this type allows (batch ${batchId})`,
+          ? `Came back at ${diameter.toFixed(3)} mm, below the minimum usable ${c.min_usable_diameter_mm.toFixed(3)} mm (batch ${batch.number})`
+          : `Came back from a regrind past the ${c.max_regrinds} this type allows (batch ${batch.number})`,
       })
       outcome.retired++
     }

@@ -7,7 +7,7 @@ import type { Tx } from '../../db/connect'
 /** The batch's row, locked until the transaction ends; 404 when it is not in the shop. */
 export async function lockRegrindBatch(tx: Tx, shopId: number, id: number) {
   const row = await tx.selectFrom('regrind_batches')
-    .select(['id', 'status', 'supplier_id', 'note', 'sent_at', 'received_at'])
+    .select(['id', 'number', 'status', 'supplier_id', 'note', 'sent_at', 'received_at'])
     .where('shop_id', '=', shopId).where('id', '=', id)
     .forUpdate()
     .executeTakeFirst()
@@ -23,12 +23,12 @@ const BATCH_SENTENCE: Record<BatchStatus, string> = {
 }
 
 /** 409 unless the batch is in the status the action needs. */
-export function requireBatchStatus(batch: { id: number, status: BatchStatus }, wanted: BatchStatus, action: string): void {
+export function requireBatchStatus(batch: { number: number, status: BatchStatus }, wanted: BatchStatus, action: string): void {
   if (batch.status === wanted) return
   const hint = batch.status === 'draft' ? ' Send it first.' : batch.status === 'sent' ? ' Receive it back instead.' : ''
   throw createError({
     statusCode: 409,
-    statusMessage: `Batch ${batch.id} ${BATCH_SENTENCE[batch.status]}, so it cannot be ${action}.${hint}`,
+    statusMessage: `Batch ${batch.number} ${BATCH_SENTENCE[batch.status]}, so it cannot be ${action}.${hint}`,
     data: { status: batch.status },
   })
 }
@@ -64,7 +64,7 @@ export async function claimCuttersForBatch(tx: Tx, shopId: number, ids: readonly
 
   let taken = tx.selectFrom('regrind_batch_items as i')
     .innerJoin('regrind_batches as b', (j) => j.onRef('b.id', '=', 'i.batch_id').onRef('b.shop_id', '=', 'i.shop_id'))
-    .select(['i.cutter_id', 'b.id as batchId'])
+    .select(['i.cutter_id', 'b.number as batchNumber'])
     .where('i.shop_id', '=', shopId).where('i.cutter_id', 'in', [...ids])
     .where('b.status', 'in', [...OPEN_BATCH_STATUSES])
   if (ownBatchId !== null) taken = taken.where('b.id', '<>', ownBatchId)
@@ -73,7 +73,7 @@ export async function claimCuttersForBatch(tx: Tx, shopId: number, ids: readonly
     const code = (id: number) => cutters.find((c) => c.id === id)!.code
     throw createError({
       statusCode: 409,
-      statusMessage: `Already in another open batch: ${clashes.map((x) => `${code(x.cutter_id)} (batch ${x.batchId})`).join(', ')}. Remove them there first.`,
+      statusMessage: `Already in another open batch: ${clashes.map((x) => `${code(x.cutter_id)} (batch ${x.batchNumber})`).join(', ')}. Remove them there first.`,
       data: { cutterIds: clashes.map((x) => x.cutter_id) },
     })
   }

@@ -4,27 +4,33 @@
 import type { SessionUser } from '../platform/auth'
 import type { OutgoingMail } from '../platform/mail'
 import type { RegrindBatchView } from './regrind-view'
+import type { ShopLetterhead } from './orders'
 
 export function regrindBatchMail(m: {
-  to: string, shopName: string, supplierName: string, sender: { name: string, email: string }, batch: RegrindBatchView
+  to: string, shop: ShopLetterhead, supplierName: string, sender: { name: string, email: string }, batch: RegrindBatchView
 }): OutgoingMail {
+  const shopName = m.shop.name
+  const returnTo = letterheadLines(m.shop)
   const n = m.batch.items.length
   const bits = `${n} router bit${n === 1 ? '' : 's'}`
   const lines = m.batch.items.map((i) => `${i.code}  ${i.typeName}  ${i.diameterBeforeMm.toFixed(3)} mm`)
-  const intro = `Hello ${m.supplierName}, ${m.shopName} is sending you ${bits} to resharpen (batch ${m.batch.id}).`
+  const intro = `Hello ${m.supplierName}, ${shopName} is sending you ${bits} to resharpen (batch ${m.batch.number}).`
   const outro = `Questions to ${m.sender.name}, ${m.sender.email}. Please keep the label on each bit so it can be matched on its return.`
   const note = m.batch.note ? [`Note: ${m.batch.note}`] : []
+  const back = `Please send them back to: ${returnTo.join(', ')}.`
   const rows = m.batch.items.map((i) => `<tr><td style="padding:4px 12px 4px 0;font-family:monospace;font-weight:bold">${escapeHtml(i.code)}</td>`
     + `<td style="padding:4px 12px 4px 0">${escapeHtml(i.typeName)}</td><td style="padding:4px 0;text-align:right">${i.diameterBeforeMm.toFixed(3)} mm</td></tr>`).join('')
   return {
     to: m.to,
-    subject: `Resharpening: ${bits} from ${m.shopName} (batch ${m.batch.id})`,
-    text: [intro, ...note, 'Label code, type, diameter as sent:', lines.join('\n'), outro].join('\n\n') + '\n',
+    subject: `Resharpening: ${bits} from ${shopName} (batch ${m.batch.number})`,
+    text: [intro, ...note, 'Label code, type, diameter as sent:', lines.join('\n'), back, outro].join('\n\n') + '\n',
+    ...(m.shop.replyEmail && { replyTo: m.shop.replyEmail }),
     html: `<!doctype html><html><body style="margin:0;background:#f6f4ee;font-family:Arial,sans-serif;color:#15191c">
 <div style="max-width:620px;margin:0 auto;padding:24px">
 <p style="margin:0 0 16px">${escapeHtml(intro)}</p>${note.map((n) => `<p style="margin:0 0 16px">${escapeHtml(n)}</p>`).join('')}
 <table style="border-collapse:collapse;margin:0 0 16px"><thead><tr><th style="text-align:left;padding:4px 12px 4px 0">Label code</th>
 <th style="text-align:left;padding:4px 12px 4px 0">Type</th><th style="text-align:right;padding:4px 0">Diameter as sent</th></tr></thead><tbody>${rows}</tbody></table>
+<p style="margin:0 0 16px">${escapeHtml(back)}</p>
 <p style="margin:0;font-size:14px;color:#3b4349">${escapeHtml(outro)}</p>
 </div></body></html>`,
   }
@@ -38,9 +44,9 @@ export async function mailBatchToSupplier(user: SessionUser, batch: RegrindBatch
   if (!batch.supplier || !to) {
     return { sent: false, to: null, problem: 'The batch was sent, but its supplier has no e-mail address, so no list was e-mailed.' }
   }
-  const shop = await useDb().selectFrom('shops').select('name').where('id', '=', user.shopId).executeTakeFirstOrThrow()
+  const shop = await shopLetterhead(useDb(), user.shopId)
   try {
-    await sendShopMail(user.shopId, 'regrind', regrindBatchMail({ to, shopName: shop.name, supplierName: batch.supplier.name, sender: user, batch }))
+    await sendShopMail(user.shopId, 'regrind', regrindBatchMail({ to, shop, supplierName: batch.supplier.name, sender: user, batch }))
     return { sent: true, to, problem: null }
   } catch (err) {
     console.error(`[regrind] e-mail for batch ${batch.id} to ${to} failed:`, err)

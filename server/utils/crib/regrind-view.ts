@@ -16,7 +16,7 @@ export async function regrindBatchList(db: Queryable, shopId: number, now = new 
     .leftJoin('suppliers as s', (j) => j.onRef('s.id', '=', 'b.supplier_id').onRef('s.shop_id', '=', 'b.shop_id'))
     .leftJoin('regrind_batch_items as i', (j) => j.onRef('i.batch_id', '=', 'b.id').onRef('i.shop_id', '=', 'b.shop_id'))
     .select((eb) => [
-      'b.id', 'b.status', 'b.note', 'b.created_at', 'b.sent_at', 'b.received_at', 's.id as supplierId', 's.name as supplierName',
+      'b.id', 'b.number', 'b.status', 'b.note', 'b.created_at', 'b.sent_at', 'b.received_at', 's.id as supplierId', 's.name as supplierName',
       's.regrind_turnaround_days as turnaround',
       eb.fn.count<number>('i.id').as('items'),
       eb.fn.count<number>('i.id').filterWhere('i.result', 'is', null).as('out'),
@@ -31,6 +31,7 @@ export async function regrindBatchList(db: Queryable, shopId: number, now = new 
     .execute()
   return rows.map((b) => ({
     id: b.id,
+    number: b.number,
     status: b.status,
     note: b.note,
     supplier: b.supplierId === null ? null : { id: b.supplierId, name: b.supplierName ?? '' },
@@ -48,7 +49,7 @@ export async function regrindBatchView(db: Queryable, shopId: number, id: number
   const b = await db.selectFrom('regrind_batches as b')
     .leftJoin('suppliers as s', (j) => j.onRef('s.id', '=', 'b.supplier_id').onRef('s.shop_id', '=', 'b.shop_id'))
     .leftJoin('users as u', (j) => j.onRef('u.id', '=', 'b.created_by').onRef('u.shop_id', '=', 'b.shop_id'))
-    .select(['b.id', 'b.status', 'b.note', 'b.created_at', 'b.sent_at', 'b.received_at',
+    .select(['b.id', 'b.number', 'b.ship_to', 'b.status', 'b.note', 'b.created_at', 'b.sent_at', 'b.received_at',
       's.id as supplierId', 's.name as supplierName', 's.email as supplierEmail', 's.regrind_turnaround_days as turnaround', 'u.name as createdByName'])
     .where('b.shop_id', '=', shopId).where('b.id', '=', id)
     .executeTakeFirst()
@@ -67,6 +68,10 @@ export async function regrindBatchView(db: Queryable, shopId: number, id: number
 
   return {
     id: b.id,
+    /** Counted per shop: the shop's first batch is 1. */
+    number: b.number,
+    /** The shop's address as it was when the batch was sent. */
+    shipTo: b.ship_to,
     status: b.status,
     note: b.note,
     supplier: b.supplierId === null ? null : { id: b.supplierId, name: b.supplierName ?? '', email: b.supplierEmail },

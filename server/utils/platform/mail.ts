@@ -9,6 +9,8 @@ export interface OutgoingMail {
   subject: string
   text: string
   html: string
+  /** Where replies go: the shop's own address for mail to suppliers. */
+  replyTo?: string
   /** A fixed Message-ID lets mail systems drop a copy sent twice. */
   messageId?: string
   attachments?: Array<{ filename: string, content: Buffer, contentType: string }>

@@ -16,6 +16,10 @@ export async function shopSettings(db: Queryable, shopId: number) {
     holdingRate: s.holding_rate,
     shiftMinutes: s.shift_minutes,
     labourRateCentsPerHour: s.labour_rate_cents_per_hour,
+    address: s.address,
+    phone: s.phone,
+    replyEmail: s.reply_email,
+    currency: s.currency,
   }
 }
 export type ShopSettings = Awaited<ReturnType<typeof shopSettings>>

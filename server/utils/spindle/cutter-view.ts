@@ -31,9 +31,9 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       .innerJoin('materials as mt', (j) => j.onRef('mt.id', '=', 'l.material_id').onRef('mt.shop_id', '=', 'l.shop_id'))
       .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'l.machine_id').onRef('m.shop_id', '=', 'l.shop_id'))
       .leftJoin('users as u', 'u.id', 'l.operator_id')
-      .select(['l.id', 'l.cut_at', 'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note',
-        'mt.name as material_name', 'm.name as machine_name', 'u.name as operator_name'])
-      .where('l.shop_id', '=', shopId).where('l.cutter_id', '=', c.id)
+      .select(['l.id', 'l.cut_at', 'l.created_at', 'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note',
+        'l.material_id', 'l.operator_id', 'mt.name as material_name', 'm.name as machine_name', 'u.name as operator_name'])
+      .where('l.shop_id', '=', shopId).where('l.cutter_id', '=', c.id).where('l.voided_at', 'is', null)
       .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
       .limit(RECENT_CUTS)
       .execute(),
@@ -93,8 +93,12 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     recentCuts: cuts.map((l) => ({
       id: l.id,
       cutAt: l.cut_at,
+      /** When it was logged: its operator may correct it for 24 hours from then. */
+      loggedAt: l.created_at,
       minutes: l.minutes,
+      materialId: l.material_id,
       materialName: l.material_name,
+      operatorId: l.operator_id,
       machineName: l.machine_name,
       operatorName: l.operator_name,
       outcome: l.outcome,

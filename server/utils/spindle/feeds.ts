@@ -60,7 +60,7 @@ export async function feedsFor(db: Queryable, shopId: number, q: z.output<typeof
     db.selectFrom('cut_logs as l')
       .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'l.cutter_id').onRef('c.shop_id', '=', 'l.shop_id'))
       .select(['l.outcome', 'l.rpm', 'l.feed_mm_per_min'])
-      .where('l.shop_id', '=', shopId).where('l.material_id', '=', material.id).where('c.type_id', '=', type.id)
+      .where('l.shop_id', '=', shopId).where('l.voided_at', 'is', null).where('l.material_id', '=', material.id).where('c.type_id', '=', type.id)
       .where('l.rpm', 'is not', null).where('l.feed_mm_per_min', 'is not', null)
       .execute(),
   ])

@@ -11,7 +11,7 @@ import type { SessionUser } from '../platform/auth'
 import { badField } from '../platform/validation'
 import { requireCutterView } from './cutter-view'
 import { alreadyDone, lockCutter, recordEvent, STATUS_SENTENCE } from './spindle'
-import { cutterList } from '../machines'
+import { cutterList } from './machines'
 
 /** The load route's body; `idempotencyKey` is the phone's key when the load waited in its queue. */
 export interface LoadRequest { machineId: number, returnCutterId?: number, pocket?: number, idempotencyKey?: string }
@@ -22,7 +22,9 @@ export async function loadCutter(db: Db, user: SessionUser, id: number, { machin
   await db.transaction().execute(async (tx) => {
     const machine = await tx.selectFrom('machines').select(['id', 'name', 'pockets', 'active'])
       .where('shop_id', '=', user.shopId).where('id', '=', machineId)
-      .forUpdate().executeTakeFirst()
+      // Not FOR UPDATE: a cut log's foreign key takes KEY SHARE on the machine while it holds the
+      // cutter, and FOR UPDATE against that would deadlock. Loads still queue on each other.
+      .forNoKeyUpdate().executeTakeFirst()
     if (!machine) badField('machineId', 'no such machine in your shop')
     if (!machine.active) badField('machineId', `${machine.name} is retired; choose another machine or ask the crib manager to bring it back`)
     const cutter = await lockCutter(tx, user.shopId, id)

@@ -7,7 +7,7 @@ export default defineEventHandler(async (event) => {
   await transaction(async (tx) => {
     const order = await lockOrder(tx, user.shopId, id)
     if (order.status !== 'draft' && order.status !== 'sent') {
-      throw createError({ statusCode: 409, statusMessage: `${orderNumber(id)} is ${order.status.replace('_', ' ')} and cannot be cancelled.` })
+      throw createError({ statusCode: 409, statusMessage: `${orderNumber(order.number)} is ${order.status.replace('_', ' ')} and cannot be cancelled.` })
     }
     await tx.updateTable('purchase_orders').set({ status: 'cancelled' }).where('shop_id', '=', user.shopId).where('id', '=', id).execute()
   })

@@ -1,5 +1,5 @@
 // The shop's machines as the routes answer them, with the cutters each holds now.
-import type { Queryable } from '../db/connect'
+import type { Queryable } from '../../db/connect'
 
 export interface MachineView {
   id: number
@@ -55,7 +55,7 @@ export async function requireMachine(db: Queryable, shopId: number, id: number):
 /** The machine's row, locked until the transaction ends (loads, retiring and pocket changes queue on it); 404 when not the shop's. */
 export async function lockMachine(db: Queryable, shopId: number, id: number) {
   const row = await db.selectFrom('machines').select(['id', 'name', 'pockets', 'min_rpm', 'max_rpm', 'active'])
-    .where('shop_id', '=', shopId).where('id', '=', id).forUpdate().executeTakeFirst()
+    .where('shop_id', '=', shopId).where('id', '=', id).forNoKeyUpdate().executeTakeFirst()
   if (!row) notFound('machine')
   return row
 }
