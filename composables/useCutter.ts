@@ -6,7 +6,8 @@ export type CutterView = InternalApi['/api/cutters/by-code/:code']['get']
 export type RemainingInMaterial = CutterView['remainingMinutes'][number]
 export type RecentCut = CutterView['recentCuts'][number]
 export type MachineChoice = InternalApi['/api/machines']['get'][number]
-export type MaterialChoice = InternalApi['/api/materials']['get'][number]
+/** What a material picker needs: the list route's fields that the phone's offline copy keeps too. */
+export type MaterialChoice = Pick<InternalApi['/api/materials']['get'][number], 'id' | 'name' | 'family' | 'wearFactor' | 'common'>
 
 /** The cutter with this label code; nothing is asked of the server for a code that cannot exist. */
 export function useCutter(code: MaybeRefOrGetter<string>, options: { valid: boolean }) {
