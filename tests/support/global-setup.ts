@@ -18,8 +18,9 @@ const TASK_TOKEN = 'test-task-token-0123456789'
 let server: ChildProcess | undefined
 let catcher: MailCatcher | undefined
 
-// Shared by the two projects' copies of this module (each project loads it on its own).
-const shared = globalThis as typeof globalThis & { kerfbookSetup?: { users: number, ready: Promise<void> } }
+// Shared by the two projects' copies of this module (each project loads it on its own). The copy
+// that started the app and the catcher holds them, so its `stop` is the one the last user calls.
+const shared = globalThis as typeof globalThis & { kerfbookSetup?: { users: number, ready: Promise<void>, stop: () => Promise<void> } }
 
 export async function setup() {
   if (shared.kerfbookSetup) {
@@ -27,14 +28,15 @@ export async function setup() {
     return shared.kerfbookSetup.ready
   }
   const ready = start()
-  shared.kerfbookSetup = { users: 1, ready }
+  shared.kerfbookSetup = { users: 1, ready, stop }
   return ready
 }
 
 export async function teardown() {
   if (!shared.kerfbookSetup || --shared.kerfbookSetup.users > 0) return
+  const { stop: stopStarted } = shared.kerfbookSetup
   shared.kerfbookSetup = undefined
-  await stop()
+  await stopStarted()
 }
 
 async function start() {
