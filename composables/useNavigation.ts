@@ -1,5 +1,6 @@
 // The navigation of the shell, filtered by the signed-in role. Items marked `phone` also sit in
-// the bottom tab bar; the rest are reached from the Account page on a phone.
+// the bottom tab bar; the rest are reached from the Account page on a phone. The bit chooser is
+// reached from its panel on Home and Scan and from the feeds page, so the desktop bar still fits.
 import { roleAtLeast, type Role } from '#shared/kerf/roles'
 
 export type NavIconName = 'home' | 'scan' | 'feeds' | 'crib' | 'report' | 'people' | 'settings' | 'account' | 'insights' | 'programs'
@@ -9,7 +10,6 @@ const ITEMS: NavItem[] = [
   { to: '/', label: 'Home', icon: 'home', role: 'operator', phone: true },
   { to: '/scan', label: 'Scan', icon: 'scan', role: 'operator', phone: true },
   { to: '/feeds', label: 'Feeds', icon: 'feeds', role: 'operator', phone: false },
-  { to: '/bit-choice', label: 'Which bit?', icon: 'feeds', role: 'operator', phone: false },
   { to: '/programs', label: 'Programs', icon: 'programs', role: 'operator', phone: false },
   { to: '/crib', label: 'Crib', icon: 'crib', role: 'crib_manager', phone: true },
   { to: '/reports', label: 'Reports', icon: 'report', role: 'crib_manager', phone: false },

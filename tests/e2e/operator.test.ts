@@ -171,6 +171,8 @@ describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
       await page.getByText('In the crib', { exact: true }).first().waitFor()
       await page.getByRole('button', { name: 'Load into a machine' }).click()
       await page.getByRole('button', { name: 'Second big table' }).click()
+      // It has a tool changer: the phone's copy knows its pockets too.
+      await page.getByRole('button', { name: /^Pocket \d+ free$/ }).first().click()
       await page.getByRole('status').filter({ hasText: `Saved on this phone: ${onShelf.code} is loaded into Second big table once the connection is back.` }).waitFor()
       await page.getByText('In Second big table', { exact: true }).waitFor()
       await shot(page, 'offline-load-waiting')

@@ -16,6 +16,7 @@ let shop: TestShop
 let fx: RegrindFixture
 let shopName: string
 let batchId: number
+let batchNumber: number
 let out: Array<{ id: number, code: string }>
 let journey: Journey
 
@@ -38,6 +39,7 @@ beforeAll(async () => {
   out = await fx.add([{ lifeUsed: 0.95 }, { lifeUsed: 0.95 }])
   const batch = await shop.crib.post('/api/regrind/batches', { cutterIds: out.map((c) => c.id), supplierId: fx.supplier.id })
   batchId = batch.body.batch.id
+  batchNumber = batch.body.batch.number
   expect((await shop.crib.post(`/api/regrind/batches/${batchId}/send`, {})).status).toBe(200)
   journey = await startJourney('purchasing', DESKTOP)
 })
@@ -96,7 +98,7 @@ describe('purchasing at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
 
     // The regrind batch comes back in two parts.
     await open(page, '/crib/regrind')
-    const batch = page.getByRole('article', { name: `Batch ${batchId}` })
+    const batch = page.getByRole('article', { name: `Batch ${batchNumber}` })
     await batch.getByText('2 of 2 still out').waitFor()
     await batch.getByRole('button', { name: 'Receive what came back…' }).click()
     await batch.getByRole('group', { name: `What happened to ${out[1]!.code}` }).getByLabel('Still out').check()
@@ -104,7 +106,7 @@ describe('purchasing at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
     await batch.getByRole('button', { name: 'Review the receipt' }).click()
     await batch.getByText('1 stay out at the regrinder.').waitFor()
     await batch.getByRole('button', { name: 'Receive 1 cutter' }).click()
-    await page.getByRole('status').filter({ hasText: `Batch ${batchId}: 1 back in the crib, 1 still out.` }).waitFor()
+    await page.getByRole('status').filter({ hasText: `Batch ${batchNumber}: 1 back in the crib, 1 still out.` }).waitFor()
     await batch.getByText('1 of 2 still out').waitFor()
     expect((await cutterState(out[0]!.id)).cutter.status).toBe('in_crib')
     expect((await cutterState(out[1]!.id)).cutter.status).toBe('at_regrind')
@@ -113,7 +115,7 @@ describe('purchasing at a desk', { timeout: JOURNEY_TIMEOUT }, () => {
     await batch.getByRole('button', { name: 'Receive what came back…' }).click()
     await batch.getByRole('button', { name: 'Review the receipt' }).click()
     await batch.getByRole('button', { name: 'Receive 1 cutter' }).click()
-    await page.getByRole('status').filter({ hasText: `Batch ${batchId}: 1 back in the crib.` }).waitFor()
+    await page.getByRole('status').filter({ hasText: `Batch ${batchNumber}: 1 back in the crib.` }).waitFor()
     expect((await cutterState(out[1]!.id)).cutter.status).toBe('in_crib')
     const db = appDb()
     try {

@@ -25,7 +25,8 @@ function pages(): string[] {
   const c = fx.cutters[0]!
   return ['/', '/scan', '/account', '/feeds', '/insights', '/reports', '/settings', '/team', `/labels?ids=${c.id}`,
     '/crib', '/crib/catalogue', `/crib/catalogue/${fx.typeId}`, '/crib/catalogue/new', '/crib/chip-loads', `/crib/cutters/${c.id}`,
-    '/crib/import', '/crib/orders', '/crib/regrind', '/crib/reorder', '/crib/suppliers', `/c/${c.code}`, '/c/ZZZZ999']
+    '/crib/import', '/crib/orders', '/crib/orders/new', '/crib/regrind', '/crib/reorder', '/crib/suppliers', '/crib/machines',
+    '/crib/materials', `/machines/${fx.machines.changer}`, '/programs', '/bit-choice', `/c/${c.code}`, '/c/ZZZZ999']
 }
 
 async function visibleText(page: import('playwright-core').Page): Promise<string> {

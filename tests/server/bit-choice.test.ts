@@ -8,6 +8,7 @@ import { CUTTER_TYPES } from '../../server/db/seed/demo-data'
 import { appDb } from '../support/db'
 import type { Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
+import { loadCutters } from '../support/spindle'
 
 let shop: TestShop
 let other: TestShop
@@ -130,7 +131,9 @@ describe('GET /api/bit-choice on the demo shop\'s types', () => {
     const up6Before = before.find((c) => c.typeId === typeIds.up6)!
     expect([up6Before.fit, up6Before.results]).toEqual(['fair', { logs: 0, cleanShare: null, cleanupMinutesPerPart: null }])
 
-    // Two cut logs through the route, each with the cleanup minutes a part cost.
+    // Two cut logs through the route, each with the cleanup minutes a part cost, on the cutter
+    // loaded into the machine (a cut is logged only on a loaded cutter).
+    await loadCutters(shop.operator, [cutterOf.up6!.used], machineId)
     for (const [outcome, cleanup] of [['fuzzy', 12], ['fuzzy', 8]] as const) {
       const res = await shop.operator.post(`/api/cutters/${cutterOf.up6!.used}/cuts`, {
         idempotencyKey: randomUUID(), materialId: hdpe.id, minutes: 10, outcome, cleanupMinutesPerPart: cleanup,

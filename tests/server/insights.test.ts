@@ -195,7 +195,8 @@ describe('learned wear', () => {
 
   it('adopting a figure with a wide interval asks first; confirmed, it writes the factor, records who, and leaves past logs', async () => {
     // c3 wears out after 200 min of HDPE, a third of its rated life at the figure in use: one
-    // life, so HDPE moves toward the data, with a wide interval.
+    // life, so HDPE moves toward the data, with a wide interval. A cut is logged on a loaded cutter.
+    await loadCutters(shop.operator, [fx.cutters[3]!.id], fx.machines.changer)
     expect((await cut(shop.operator, fx.cutters[3]!.id, { materialId: mat.HDPE, minutes: 200 })).status).toBe(201)
     expect((await shop.operator.post(`/api/cutters/${fx.cutters[3]!.id}/flag`, { kind: 'dull' })).status).toBe(200)
     const asked = await shop.crib.post('/api/insights/wear/adopt', { materialIds: [mat.MDF, mat.HDPE] })

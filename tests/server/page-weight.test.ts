@@ -39,8 +39,9 @@ describe('what the phone downloads', () => {
 
     const own = [...page].filter((f) => !entry.has(f)).reduce((sum, f) => sum + gzipped(f), 0)
     const all = [...new Set([...page, ...entry])].reduce((sum, f) => sum + gzipped(f), 0)
-    // Budgets with some room: about 17 KB and 100 KB gzipped when written.
-    expect(own).toBeLessThan(30 * 1024)
+    // Budgets with some room: about 17 KB and 100 KB gzipped when first written; the page's own
+    // code was 31 KB once it gained the offline copy, pockets, the one-bit swap and corrections.
+    expect(own).toBeLessThan(36 * 1024)
     expect(all).toBeLessThan(120 * 1024)
   })
 

@@ -190,7 +190,7 @@ describe('orders from scratch, with a purchase-order PDF', () => {
     const sent = await shop.crib.post(`/api/orders/${orderId}/send`)
     expect(sent.status).toBe(200)
     const mail = await waitForMail(fx.supplier.email, sent.body.number)
-    expect(mail.text).toContain(`Deliver to: ${shopName}`)
+    expect(mail.text).toContain(`Deliver to:\n${shopName}`)
     expect(mail.attachments).toHaveLength(1)
     expect(mail.attachments[0]).toMatchObject({ filename: `purchase-order-${sent.body.number}.pdf`, contentType: 'application/pdf' })
     const text = await pdfText(Buffer.from(mail.attachments[0]!.contentBase64, 'base64'))

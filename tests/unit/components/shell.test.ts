@@ -16,8 +16,8 @@ describe('navigation', () => {
     expect(navigationFor('owner').map((i) => i.to)).toContain('/team')
     expect(navigationFor('owner').find((i) => i.to === '/insights')).toMatchObject({ label: 'Insights', icon: 'insights', phone: false })
     expect(navigationFor('crib_manager').map((i) => i.to)).not.toContain('/team')
-    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/bit-choice', '/programs', '/account'])
-    expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/bit-choice', '/programs', '/crib', '/reports', '/account'])
+    expect(navigationFor('operator').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/programs', '/account'])
+    expect(navigationFor('crib_manager').map((i) => i.to)).toEqual(['/', '/scan', '/feeds', '/programs', '/crib', '/reports', '/account'])
     expect(navigationFor(undefined)).toEqual([])
   })
 
