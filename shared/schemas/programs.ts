@@ -1,6 +1,6 @@
 // Inputs of the NC program routes, shared with the program pages' forms.
 import { z } from 'zod'
-import { CUT_OUTCOMES } from '../kerf/spindle'
+import { CUT_LIMITS, CUT_OUTCOMES } from '../kerf/spindle'
 
 const MAX_ID = 2_147_483_647
 /** Programs larger than this are refused before they are read. */
@@ -34,6 +34,10 @@ export const RunBody = z.object({
     tool: toolNumber,
     minutes: z.number({ error: 'enter the minutes' }).min(0.01, { error: 'must be at least 0.01 minutes' }).max(1440, { error: 'must be at most 1440 minutes' }).optional(),
     outcome: z.enum(CUT_OUTCOMES, { error: 'choose clean, melted, chip out, fuzzy or broken' }).optional(),
+    // Hand-finishing each part needed because of this tool's edge, carried to its cut log.
+    cleanupMinutesPerPart: z.number({ error: 'enter the cleanup minutes per part' })
+      .min(CUT_LIMITS.cleanupMinutesPerPart.min, { error: 'must be 0 or more' })
+      .max(CUT_LIMITS.cleanupMinutesPerPart.max, { error: `must be at most ${CUT_LIMITS.cleanupMinutesPerPart.max} minutes` }).nullish(),
   })).max(100).optional(),
 })
 export type RunInput = z.input<typeof RunBody>

@@ -1,6 +1,7 @@
 // An operator runs a job from an NC program on a phone: uploads the program, checks it against a
 // machine whose pockets hold a dull bit and a downcut bit in acrylic, sees both warnings and the
-// cautions, logs the run, and the cutters' minutes grow by the estimates shown.
+// cautions, logs the run with the cleanup a melted edge cost, and the cutters' minutes grow by the
+// estimates shown.
 import { readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -49,6 +50,16 @@ const minutesOf = async (ids: number[]) => {
   }
 }
 
+const cutLogsOf = async (ids: number[]) => {
+  const db = appDb()
+  try {
+    return (await db.selectFrom('cut_logs').select(['cutter_id', 'outcome', 'cleanup_minutes_per_part']).where('cutter_id', 'in', ids).orderBy('id').execute())
+      .map((l) => [l.cutter_id, l.outcome, l.cleanup_minutes_per_part])
+  } finally {
+    await db.destroy()
+  }
+}
+
 describe('a job from an NC program, on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
   it('uploads, checks with both warnings, logs the run, and the minutes grow by the estimates', async () => {
     const { page, check } = journey
@@ -79,9 +90,21 @@ describe('a job from an NC program, on a phone', { timeout: JOURNEY_TIMEOUT }, (
 
     const before = await minutesOf([dull.id, downcut.id])
     await page.getByLabel('Job reference (the customer\'s order or job number)').fill('Order 4471')
+    // T2's downcut melted the acrylic: its outcome, then the cleanup it cost, asked only for a poor finish.
+    await page.getByText('Change a tool\'s minutes, outcome or cleanup').click()
+    const cleanup = page.getByLabel('Cleanup minutes per part (optional)')
+    await expect(cleanup.count()).resolves.toBe(0)
+    await page.locator('select[name=outcome-T2]').selectOption('melted')
+    await cleanup.fill('700')
+    await page.getByRole('button', { name: 'Ran 2 sheets: log every tool' }).click()
+    await page.getByText('Cleanup is minutes per part, 0 to 600, or leave it empty.').waitFor()
+    await check('run-cleanup-refused')
+    await cleanup.fill('6,5')
     await page.getByRole('button', { name: 'Ran 2 sheets: log every tool' }).click()
     await page.getByRole('status').getByText('Logged the run.').waitFor()
     await check('logged')
+    const logs = await cutLogsOf([dull.id, downcut.id])
+    expect(logs).toEqual([[dull.id, 'clean', null], [downcut.id, 'melted', 6.5]])
     const after = await minutesOf([dull.id, downcut.id])
     // The page shows the minutes needed to 0.1; the logs hold the estimate × 2 to 0.01.
     expect(Math.abs(after.get(dull.id)! - before.get(dull.id)! - needed[0]!)).toBeLessThanOrEqual(0.06)

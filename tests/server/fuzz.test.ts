@@ -217,7 +217,7 @@ const FUZZ: Record<string, FuzzEntry> = {
     fields: {
       machineId: id(), materialId: id(), repeats: int(1, 1000), jobRef: str(100, { optional: true }),
       idempotencyKey: str(80, { min: 8, trim: false }),
-      adjust: list(object({ tool: int(0, 9999), minutes: num(0.01, 1440, { optional: true }), outcome: oneOf(CUT_OUTCOMES, { optional: true }) }, { tool: 1 }), 0, 100, { optional: true }),
+      adjust: list(object({ tool: int(0, 9999), minutes: num(0.01, 1440, { optional: true }), outcome: oneOf(CUT_OUTCOMES, { optional: true }), cleanupMinutesPerPart: num(0, 600, { optional: true, nullable: true }) }, { tool: 1 }), 0, 100, { optional: true }),
     },
     valid: (r) => ({ machineId: r.machineId, materialId: r.materialId, repeats: 1, idempotencyKey: randomUUID() }),
     params: (r) => ({ id: r.programId }),

@@ -225,6 +225,40 @@ describe('the check before the job and logging the run', () => {
     expect(wrongTool.body.message).toMatch(/the program calls no tool T9/)
   })
 
+  it('carries each tool\'s cleanup minutes per part to that tool\'s cut log and the owner\'s cleanup table', async () => {
+    const run = (key: string, adjust: unknown[]) => shop.operator.post(`/api/programs/${programId}/runs`,
+      { machineId: ids.machine, materialId: acrylic, repeats: 1, idempotencyKey: key, adjust })
+    const first = await run('run-key-cleanup-1', [{ tool: 1, outcome: 'fuzzy', cleanupMinutesPerPart: 4 }, { tool: 2, outcome: 'melted', cleanupMinutesPerPart: 7.5 }])
+    expect(first.status).toBe(201)
+    expect(first.body.logs).toMatchObject([
+      { tool: 1, cutterId: dull.id, outcome: 'fuzzy', cleanupMinutesPerPart: 4 },
+      { tool: 2, cutterId: downcut.id, outcome: 'melted', cleanupMinutesPerPart: 7.5 },
+    ])
+    // A tool left out of `adjust` logs a clean cut with no cleanup.
+    const second = await run('run-key-cleanup-2', [{ tool: 2, outcome: 'melted', cleanupMinutesPerPart: 2.5 }])
+    expect(second.body.logs).toMatchObject([{ tool: 1, outcome: 'clean', cleanupMinutesPerPart: null }, { tool: 2, cleanupMinutesPerPart: 2.5 }])
+
+    const stored = await withDb((db) => db.selectFrom('cut_logs').select(['id', 'cutter_id', 'outcome', 'cleanup_minutes_per_part'])
+      .where('id', 'in', [...first.body.logs, ...second.body.logs].map((l: { logId: string }) => l.logId)).orderBy('id').execute())
+    expect(stored.map((l) => [l.cutter_id, l.outcome, l.cleanup_minutes_per_part])).toEqual([
+      [dull.id, 'fuzzy', 4], [downcut.id, 'melted', 7.5], [dull.id, 'clean', null], [downcut.id, 'melted', 2.5],
+    ])
+
+    // By type × material, over the logs that gave cleanup: the O-flute 4 min a part from one log,
+    // the downcut (7.5 + 2.5) / 2 = 5 min a part from two (worked by hand).
+    const table = await shop.owner.get('/api/insights/cleanup')
+    expect(table.status).toBe(200)
+    const row = (typeId: number) => table.body.rows.find((r: { typeId: number, materialId: number }) => r.typeId === typeId && r.materialId === acrylic)
+    expect(row(ids.upcutType)).toMatchObject({ cleanupLogs: 1, cleanupMinutesPerPart: 4, fuzzy: 1 })
+    expect(row(ids.downcutType)).toMatchObject({ cleanupLogs: 2, cleanupMinutesPerPart: 5 })
+
+    // The cut log's limits: 0 to 600 minutes, the field named.
+    const over = await run('run-key-cleanup-3', [{ tool: 2, outcome: 'melted', cleanupMinutesPerPart: 600.5 }])
+    expect(over.status).toBe(400)
+    expect(over.body.data.fields['adjust.0.cleanupMinutesPerPart']).toMatch(/at most 600 minutes/)
+    expect((await run('run-key-cleanup-4', [{ tool: 2, outcome: 'melted', cleanupMinutesPerPart: -1 }])).body.data.fields['adjust.0.cleanupMinutesPerPart']).toMatch(/0 or more/)
+  })
+
   it('refuses to log a run with an empty pocket, naming it', async () => {
     const res = await shop.operator.post(`/api/programs/${programId}/runs`, { machineId: ids.manual, materialId: acrylic, repeats: 1, idempotencyKey: 'run-key-empty' })
     expect(res.status).toBe(409)

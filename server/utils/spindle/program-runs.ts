@@ -1,6 +1,7 @@
 // Logging a run of a program: one cut log per tool, against the cutter in that tool's pocket, in
 // the chosen material, for the acceleration-aware estimate × repeats (or the operator's
-// adjustment), through the same logCut() (server/utils/spindle/cuts.ts) as a cut logged by hand. Each tool's log has the key
+// adjustment), with the tool's outcome and any cleanup minutes per part, through the same logCut()
+// (server/utils/spindle/cuts.ts) as a cut logged by hand. Each tool's log has the key
 // "<run key>:T<tool>", so a double tap or a retry logs each tool once; the run row and its list of
 // logs are written with ON CONFLICT DO NOTHING, so a retry after a failure part way finishes the
 // run instead of starting a second one.
@@ -59,6 +60,7 @@ export async function logRun(user: SessionUser, programId: number, body: z.outpu
     const feed = t.feedsMmPerMin.length ? Math.max(...t.feedsMmPerMin) : null
     const result = await logCut(db, user, cutterId, {
       idempotencyKey: `${body.idempotencyKey}:T${t.tool}`, materialId: body.materialId, machineId: body.machineId, minutes, outcome,
+      cleanupMinutesPerPart: adjust?.cleanupMinutesPerPart ?? null,
       rpm: rpm && rpm > 0 ? rpm : null, feedMmPerMin: feed && feed > 0 ? Math.min(feed, 1_000_000) : null, cutAt,
       note: `Program ${check.program.name}, T${t.tool}, ${body.repeats} ${body.repeats === 1 ? 'repeat' : 'repeats'}${run.job_ref ? `, job ${run.job_ref}` : ''}`,
     })
@@ -66,7 +68,7 @@ export async function logRun(user: SessionUser, programId: number, body: z.outpu
       .onConflict((oc) => oc.doNothing()).execute()
     logs.push({
       tool: t.tool, pocket: t.pocket, cutterId, cutterCode: result.cutter.code, logId: result.log.id, minutes: result.log.minutes,
-      outcome: result.log.outcome, rpm: result.log.rpm, feedMmPerMin: result.log.feedMmPerMin,
+      outcome: result.log.outcome, cleanupMinutesPerPart: result.log.cleanupMinutesPerPart, rpm: result.log.rpm, feedMmPerMin: result.log.feedMmPerMin,
       lifeUsed: result.lifeUsed, minutesTotal: result.minutesTotal,
     })
   }
