@@ -152,6 +152,7 @@ const TABLE: Record<string, Entry> = {
   'POST /api/cutters/[id]/retire': { role: 'crib_manager', tenancy: ({ ra }) => ({ params: { id: ra.cutters.crib.id }, body: { reason: 'worn' } }) },
   'POST /api/cutters/[id]/unflag': { role: 'crib_manager', tenancy: ({ ra }) => ({ params: { id: ra.cutters.dull.id }, body: {} }) },
   'GET /api/dashboard': { role: 'operator' },
+  'GET /api/getting-ready': { role: 'crib_manager' },
   'POST /api/deliveries': { role: 'crib_manager', body: ({ ra }) => ({ typeId: ra.typeId, quantity: 1 }) },
   'GET /api/export/cut-logs.csv': { role: 'crib_manager' },
   'GET /api/export/inventory.csv': { role: 'crib_manager' },

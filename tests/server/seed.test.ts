@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import jstat from 'jstat'
 import { connect, type Db } from '../../server/db/connect'
 import { reorderRows } from '../../server/utils/crib/reorder'
+import { gettingReady } from '../../server/utils/platform/getting-ready'
 import { stockInsight } from '../../server/utils/insights/stock'
 import { freshDatabase, migrate, runScript } from '../support/db'
 
@@ -83,6 +84,13 @@ describe('the demo shop seed', () => {
     expect(rows.every((r) => r.method === 'poisson')).toBe(true)
     const stock = await stockInsight(db, shop.id)
     for (const r of stock.rows) expect(r.tiedUpCents).toBe(r.inStock * r.unitCostCents)
+  })
+
+  it('has done every getting-ready step, so Home shows its owner no list', async () => {
+    const shop = await db.selectFrom('shops').select('id').where('name', '=', SHOP).executeTakeFirstOrThrow()
+    const ready = await gettingReady(db, shop.id, 'owner')
+    expect(ready.steps.filter((s) => !s.done).map((s) => s.key)).toEqual([])
+    expect(ready.done).toBe(true)
   })
 
   it('has cutters in every status', async () => {

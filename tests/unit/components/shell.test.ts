@@ -5,6 +5,8 @@ import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { describe, expect, it } from 'vitest'
 import StatusCounts from '~/components/home/StatusCounts.vue'
 import DueList from '~/components/home/DueList.vue'
+import GettingReady from '~/components/home/GettingReady.vue'
+import { GETTING_READY_STEPS } from '#shared/kerf/getting-ready'
 import { navigationFor } from '~/composables/useNavigation'
 
 describe('navigation', () => {
@@ -59,5 +61,36 @@ describe('home components', () => {
     expect(text).toContain('Flagged dull')
     expect(text).toContain('Retire')
     expect(text).toContain('In the crib')
+  })
+})
+
+describe('getting ready on Home', () => {
+  const steps = (done: (key: string) => boolean, to: (s: typeof GETTING_READY_STEPS[number]) => string | null = (s) => s.to) =>
+    GETTING_READY_STEPS.map((s) => ({ ...s, to: to(s), done: done(s.key) }))
+
+  it('links each open step to the page that does it and ticks the done ones without a link', async () => {
+    const wrapper = await mountSuspended(GettingReady, { props: { steps: steps((k) => k === 'machine' || k === 'supplier') } })
+    expect(wrapper.find('h2').text()).toBe('Getting ready')
+    expect(wrapper.text()).toContain('5 steps left')
+    const links = wrapper.findAll('a')
+    expect(links.map((a) => a.attributes('href'))).toEqual(['/crib/materials', '/crib/catalogue', '/crib/orders', '/team', '/scan'])
+    expect(links[0]!.text()).toContain('Check your materials')
+    const machine = wrapper.find('[data-step="machine"]')
+    expect(machine.element.tagName).toBe('DIV')
+    expect(machine.text()).toContain('(done)')
+  })
+
+  it('tells a crib manager that the owner invites people, with no dead link', async () => {
+    const wrapper = await mountSuspended(GettingReady, { props: { steps: steps(() => false, (s) => s.key === 'operator' ? null : s.to) } })
+    expect(wrapper.findAll('a').map((a) => a.attributes('href'))).not.toContain('/team')
+    expect(wrapper.find('[data-step="operator"]').text()).toContain('The owner invites people on the Team page.')
+  })
+
+  it('goes away once every step is done', async () => {
+    const one = await mountSuspended(GettingReady, { props: { steps: steps((k) => k !== 'firstCut') } })
+    expect(one.text()).toContain('One step left')
+    const done = await mountSuspended(GettingReady, { props: { steps: steps(() => true) } })
+    expect(done.find('section').exists()).toBe(false)
+    expect(done.text()).toBe('')
   })
 })
