@@ -2,7 +2,7 @@
 // in the shop's materials, and the last few cut logs. One place builds it for every route.
 import { dueAction, dueReason } from '#shared/kerf/due'
 import { remainingMinutes } from '#shared/kerf/life'
-import type { Queryable } from '../../db/connect'
+import { PREPARED, type Queryable } from '../../db/connect'
 
 const RECENT_CUTS = 5
 
@@ -22,13 +22,14 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     ])
     .where('c.shop_id', '=', shopId)
   query = 'id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code)
-  const c = await query.executeTakeFirst()
+  // Prepared, as the log-a-cut statements are: every cutter page and every logged cut reads these.
+  const c = await query.modifyEnd(PREPARED).executeTakeFirst()
   if (!c) return undefined
 
   const [materials, cuts] = await Promise.all([
     db.selectFrom('materials').select(['id', 'name', 'wear_factor', 'common'])
       .where('shop_id', '=', shopId).where('active', '=', true)
-      .orderBy('common', 'desc').orderBy('name').execute(),
+      .orderBy('common', 'desc').orderBy('name').modifyEnd(PREPARED).execute(),
     db.selectFrom('cut_logs as l')
       .innerJoin('materials as mt', (j) => j.onRef('mt.id', '=', 'l.material_id').onRef('mt.shop_id', '=', 'l.shop_id'))
       .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'l.machine_id').onRef('m.shop_id', '=', 'l.shop_id'))
@@ -38,6 +39,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       .where('l.shop_id', '=', shopId).where('l.cutter_id', '=', c.id).where('l.voided_at', 'is', null)
       .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
       .limit(RECENT_CUTS)
+      .modifyEnd(PREPARED)
       .execute(),
   ])
 
