@@ -5,12 +5,16 @@ import { remainingMinutes } from '#shared/kerf/life'
 import { jsonArrayFrom } from 'kysely/helpers/postgres'
 import { PREPARED, type Queryable } from '../../db/connect'
 
-const RECENT_CUTS = 5
+/** How many of its latest counting logs the cutter view shows. */
+export const RECENT_CUTS = 5
 
-export async function cutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }) {
-  // One statement, prepared (every cutter page and every logged cut reads it): the cutter with
-  // its type, shop and machine, the shop's materials and its last few counting logs as JSON.
-  let query = db.selectFrom('cutters as c')
+/**
+ * The cutter view's read: the cutter with its type, shop and machine, the shop's active materials
+ * and the cutter's last few counting logs as JSON, in one statement. Logging a cut extends it with
+ * what the log needs, so that the cut's answer costs no read of its own.
+ */
+export function cutterViewQuery(db: Queryable, shopId: number) {
+  return db.selectFrom('cutters as c')
     .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
     .innerJoin('shops as s', 's.id', 'c.shop_id')
     .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'c.machine_id').onRef('m.shop_id', '=', 'c.shop_id'))
@@ -38,15 +42,22 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
         .limit(RECENT_CUTS)).as('cuts'),
     ])
     .where('c.shop_id', '=', shopId)
-  query = 'id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code)
-  const c = await query.modifyEnd(PREPARED).executeTakeFirst()
-  if (!c) return undefined
-  // Inside JSON the numbers arrive as numbers and the times as text.
-  const { materials, cuts } = c as unknown as {
-    materials: Array<{ id: number, name: string, wear_factor: number, common: boolean }>
-    cuts: Array<Omit<typeof c.cuts[number], 'cut_at' | 'created_at' | 'id'> & { id: number, cut_at: string, created_at: string }>
-  }
+}
+export type CutterViewRow = NonNullable<Awaited<ReturnType<ReturnType<typeof cutterViewQuery>['executeTakeFirst']>>>
+/** A recent log as the view's read gives it: inside JSON the times arrive as text. */
+export type RecentCutRow = Omit<CutterViewRow['cuts'][number], 'cut_at' | 'created_at'> & { cut_at: string | Date, created_at: string | Date }
 
+export async function cutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }) {
+  const query = cutterViewQuery(db, shopId)
+  // Prepared, as the log-a-cut statements are: every cutter page reads it.
+  const c = await ('id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code))
+    .modifyEnd(PREPARED).executeTakeFirst()
+  return c && toCutterView(c)
+}
+
+/** The cutter as the pages show it, from the view's read (or from it and a cut just written). */
+export function toCutterView(c: Omit<CutterViewRow, 'cuts'> & { cuts: RecentCutRow[] }) {
+  const { materials, cuts } = c
   const forDue = { status: c.status, lifeUsed: c.life_used, flagged: c.flagged, regrindCount: c.regrind_count, diameterMm: c.diameter_mm }
   const reason = dueReason(forDue, c.life_threshold)
   return {
@@ -110,7 +121,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     })),
   }
 }
-export type CutterView = NonNullable<Awaited<ReturnType<typeof cutterView>>>
+export type CutterView = ReturnType<typeof toCutterView>
 
 /** The cutter, or a 404 that says so plainly. */
 export async function requireCutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }): Promise<CutterView> {
