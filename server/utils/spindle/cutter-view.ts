@@ -2,11 +2,14 @@
 // in the shop's materials, and the last few cut logs. One place builds it for every route.
 import { dueAction, dueReason } from '#shared/kerf/due'
 import { remainingMinutes } from '#shared/kerf/life'
-import type { Queryable } from '../../db/connect'
+import { jsonArrayFrom } from 'kysely/helpers/postgres'
+import { PREPARED, type Queryable } from '../../db/connect'
 
 const RECENT_CUTS = 5
 
 export async function cutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }) {
+  // One statement, prepared (every cutter page and every logged cut reads it): the cutter with
+  // its type, shop and machine, the shop's materials and its last few counting logs as JSON.
   let query = db.selectFrom('cutters as c')
     .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
     .innerJoin('shops as s', 's.id', 'c.shop_id')
@@ -17,33 +20,32 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       'm.name as machine_name', 's.life_threshold', 's.shift_minutes',
       't.id as type_id', 't.name as type_name', 't.rated_life_minutes', 't.flutes', 't.cutting_diameter_mm', 't.shank_diameter_mm',
       't.helix', 't.profile', 't.v_angle_deg', 't.tool_material', 't.max_regrinds', 't.regrind_diameter_loss_mm', 't.min_usable_diameter_mm',
+      // The type's longest logged cut (kept by a trigger on the logs), against which the cut form weighs a new one.
+      't.longest_cut_minutes',
+    ])
+    .select((eb) => [
+      jsonArrayFrom(eb.selectFrom('materials as mt').select(['mt.id', 'mt.name', 'mt.wear_factor', 'mt.common'])
+        .whereRef('mt.shop_id', '=', 'c.shop_id').where('mt.active', '=', true)
+        .orderBy('mt.common', 'desc').orderBy('mt.name')).as('materials'),
+      jsonArrayFrom(eb.selectFrom('cut_logs as l')
+        .innerJoin('materials as lm', (j) => j.onRef('lm.id', '=', 'l.material_id').onRef('lm.shop_id', '=', 'l.shop_id'))
+        .leftJoin('machines as lmc', (j) => j.onRef('lmc.id', '=', 'l.machine_id').onRef('lmc.shop_id', '=', 'l.shop_id'))
+        .leftJoin('users as u', 'u.id', 'l.operator_id')
+        .select(['l.id', 'l.cut_at', 'l.created_at', 'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note',
+          'l.material_id', 'l.operator_id', 'lm.name as material_name', 'lmc.name as machine_name', 'u.name as operator_name'])
+        .whereRef('l.shop_id', '=', 'c.shop_id').whereRef('l.cutter_id', '=', 'c.id').where('l.voided_at', 'is', null)
+        .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
+        .limit(RECENT_CUTS)).as('cuts'),
     ])
     .where('c.shop_id', '=', shopId)
   query = 'id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code)
-  const c = await query.executeTakeFirst()
+  const c = await query.modifyEnd(PREPARED).executeTakeFirst()
   if (!c) return undefined
-
-  const [materials, cuts, longest] = await Promise.all([
-    db.selectFrom('materials').select(['id', 'name', 'wear_factor', 'common'])
-      .where('shop_id', '=', shopId).where('active', '=', true)
-      .orderBy('common', 'desc').orderBy('name').execute(),
-    db.selectFrom('cut_logs as l')
-      .innerJoin('materials as mt', (j) => j.onRef('mt.id', '=', 'l.material_id').onRef('mt.shop_id', '=', 'l.shop_id'))
-      .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'l.machine_id').onRef('m.shop_id', '=', 'l.shop_id'))
-      .leftJoin('users as u', 'u.id', 'l.operator_id')
-      .select(['l.id', 'l.cut_at', 'l.created_at', 'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note',
-        'l.material_id', 'l.operator_id', 'mt.name as material_name', 'm.name as machine_name', 'u.name as operator_name'])
-      .where('l.shop_id', '=', shopId).where('l.cutter_id', '=', c.id).where('l.voided_at', 'is', null)
-      .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
-      .limit(RECENT_CUTS)
-      .execute(),
-    // The type's longest logged cut, against which the cut form weighs a new one.
-    db.selectFrom('cut_logs as l')
-      .innerJoin('cutters as lc', (j) => j.onRef('lc.id', '=', 'l.cutter_id').onRef('lc.shop_id', '=', 'l.shop_id'))
-      .select((eb) => eb.fn.max('l.minutes').as('minutes'))
-      .where('l.shop_id', '=', shopId).where('lc.type_id', '=', c.type_id)
-      .executeTakeFirst(),
-  ])
+  // Inside JSON the numbers arrive as numbers and the times as text.
+  const { materials, cuts } = c as unknown as {
+    materials: Array<{ id: number, name: string, wear_factor: number, common: boolean }>
+    cuts: Array<Omit<typeof c.cuts[number], 'cut_at' | 'created_at' | 'id'> & { id: number, cut_at: string, created_at: string }>
+  }
 
   const forDue = { status: c.status, lifeUsed: c.life_used, flagged: c.flagged, regrindCount: c.regrind_count, diameterMm: c.diameter_mm }
   const reason = dueReason(forDue, c.life_threshold)
@@ -64,7 +66,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     receivedAt: c.received_at,
     lifeThreshold: c.life_threshold,
     /** What the cut form weighs a new log's minutes against. */
-    usual: { shiftMinutes: c.shift_minutes, longestCutMinutes: longest?.minutes == null ? null : Number(longest.minutes) },
+    usual: { shiftMinutes: c.shift_minutes, longestCutMinutes: c.longest_cut_minutes },
     due: reason && {
       reason,
       action: dueAction(forDue, {
@@ -92,9 +94,9 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     })),
     recentCuts: cuts.map((l) => ({
       id: l.id,
-      cutAt: l.cut_at,
+      cutAt: new Date(l.cut_at),
       /** When it was logged: its operator may correct it for 24 hours from then. */
-      loggedAt: l.created_at,
+      loggedAt: new Date(l.created_at),
       minutes: l.minutes,
       materialId: l.material_id,
       materialName: l.material_name,
