@@ -103,19 +103,6 @@ export default defineNuxtConfig({
     devOptions: { enabled: false },
   },
   nitro: {
-    experimental: { tasks: true },
-    // Static files are stored brotli- and gzip-compressed beside the originals and sent as the
-    // browser accepts; the pages and JSON made per request are compressed by server/plugins/compression.ts.
-    compressPublicAssets: { gzip: true, brotli: true },
-    // server/utils has a folder per room; Nitro auto-imports only the top level of server/utils,
-    // so each room is listed (platform: db, auth, validation, mail…; spindle; crib; insights).
-    imports: {
-      dirs: ['utils/platform', 'utils/spindle', 'utils/crib', 'utils/insights'].map((d) => `./server/${d}`),
-    },
-    // Checked every five minutes; each shop's own time zone and report time decide (and the
-    // per-day record makes extra runs harmless).
-    scheduledTasks: { '*/5 * * * *': ['report:nightly'] },
-  },
-  typescript: { strict: true },
+    typescript: { strict: true },
   eslint: { config: { stylistic: false } },
 })
