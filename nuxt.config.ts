@@ -103,6 +103,27 @@ export default defineNuxtConfig({
     devOptions: { enabled: false },
   },
   nitro: {
-    typescript: { strict: true },
+    experimental: { tasks: true },
+    // Static files are stored brotli- and gzip-compressed beside the originals and sent as the
+    // browser accepts; the pages and JSON made per request are compressed by server/plugins/compression.ts.
+    compressPublicAssets: { gzip: true, brotli: true },
+    // server/utils has a folder per room; Nitro auto-imports only the top level of server/utils,
+    // so each room is listed (platform: db, auth, validation, mail…; spindle; crib; insights).
+    imports: {
+      dirs: ['utils/platform', 'utils/spindle', 'utils/crib', 'utils/insights'].map((d) => `./server/${d}`),
+    },
+    // Checked every five minutes; each shop's own time zone and report time decide (and the
+    // per-day record makes extra runs harmless).
+    scheduledTasks: { '*/5 * * * *': ['report:nightly'] },
+  },
+  // npm run analyze:client: which modules make up each chunk the phone downloads (scripts/analyze-client.ts).
+  build: { analyze: process.env.KERFBOOK_ANALYZE === '1' && { enabled: true, template: 'raw-data', filename: '.data/analyze-{name}.json' } },
+  experimental: {
+    // A link fetches its page's code when a finger or pointer reaches it, not when it scrolls into
+    // view: a shop's network is slow and metered, and code fetched for pages the operator never
+    // opens also runs on the phone's main thread while the cutter page is starting.
+    defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+  },
+  typescript: { strict: true },
   eslint: { config: { stylistic: false } },
 })
