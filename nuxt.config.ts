@@ -139,7 +139,8 @@ export default defineNuxtConfig({
       globPatterns: ['_nuxt/**/*.{js,css,woff2}', 'favicon.svg', 'icons/*.png'],
       additionalManifestEntries: [{ url: '/offline-shell', revision: SHELL_REVISION }],
     },
-    client: { installPrompt: false },
+    // plugins/service-worker.client.ts registers it, without workbox-window.
+    client: { installPrompt: false, registerPlugin: false },
     devOptions: { enabled: false },
   },
   nitro: {
