@@ -1,8 +1,48 @@
 // Kerfbook: the Nuxt application. Client folders sit at the project root (srcDir '.').
+import type { Rollup } from 'vite'
 import { EARLY_TAP_SCRIPT } from './utils/early-tap'
 
 /** A new one each build, so that phones fetch the app shell again with the new code. */
 const SHELL_REVISION = Date.now().toString(36)
+
+/** Where a label's QR code lands, and the layout around it when signed in. */
+const CUTTER_PAGE = ['/pages/c/[code].vue', '/layouts/default.vue']
+const chunkOf = new WeakMap<Rollup.GetModuleInfo, Map<string, string>>()
+
+/**
+ * Two chunks besides each page's own: "app", what the entry imports (Vue, Nuxt, the plugins), and
+ * "cutter", everything else the cutter page and the signed-in layout import, directly or not. Left
+ * to itself the build split the latter into some thirty files of under 4 KB shared in different
+ * ways with other pages; on a phone's link each costs a request and its headers, and Lighthouse
+ * counts each as holding up the first paint. Other signed-in pages load "cutter" too (the layout
+ * needs most of it). The entry and the page modules stay chunks of their own, so that the build's
+ * manifest still names what each page needs.
+ */
+function phoneChunks(id: string, { getModuleIds, getModuleInfo }: Rollup.ManualChunkMeta): string | undefined {
+  let chunks = chunkOf.get(getModuleInfo)
+  if (!chunks) {
+    const reach = (roots: string[]) => {
+      const seen = new Set<string>()
+      const todo = [...roots]
+      while (todo.length) {
+        const next = todo.pop()!
+        if (seen.has(next)) continue
+        seen.add(next)
+        todo.push(...(getModuleInfo(next)?.importedIds ?? []))
+      }
+      return seen
+    }
+    const ids = [...getModuleIds()]
+    const entries = ids.filter((m) => getModuleInfo(m)?.isEntry)
+    const pages = ids.filter((m) => CUTTER_PAGE.some((p) => m.endsWith(p)))
+    chunks = new Map()
+    for (const m of reach(pages)) chunks.set(m, 'cutter')
+    for (const m of reach(entries)) chunks.set(m, 'app')
+    for (const m of [...entries, ...pages]) chunks.delete(m)
+    chunkOf.set(getModuleInfo, chunks)
+  }
+  return chunks.get(id)
+}
 
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
@@ -99,7 +139,8 @@ export default defineNuxtConfig({
       globPatterns: ['_nuxt/**/*.{js,css,woff2}', 'favicon.svg', 'icons/*.png'],
       additionalManifestEntries: [{ url: '/offline-shell', revision: SHELL_REVISION }],
     },
-    client: { installPrompt: false },
+    // plugins/service-worker.client.ts registers it, without workbox-window.
+    client: { installPrompt: false, registerPlugin: false },
     devOptions: { enabled: false },
   },
   nitro: {
@@ -115,6 +156,22 @@ export default defineNuxtConfig({
     // Checked every five minutes; each shop's own time zone and report time decide (and the
     // per-day record makes extra runs harmless).
     scheduledTasks: { '*/5 * * * *': ['report:nightly'] },
+  },
+  // npm run analyze:client: which modules make up each chunk the phone downloads (scripts/analyze-client.ts).
+  build: { analyze: process.env.KERFBOOK_ANALYZE === '1' && { enabled: true, template: 'raw-data', filename: '.data/analyze-{name}.json' } },
+  experimental: {
+    // A link fetches its page's code when a finger or pointer reaches it, not when it scrolls into
+    // view: a shop's network is slow and metered, and code fetched for pages the operator never
+    // opens also runs on the phone's main thread while the cutter page is starting.
+    defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+  },
+  vite: {
+    // The cutter page's code came in some thirty files of under 4 KB: on a phone's link each costs a
+    // request and its headers, and Lighthouse counts each as holding up the first paint.
+    $client: { build: { rollupOptions: { output: { manualChunks: phoneChunks } } } },
+    // Every component is written with <script setup>: Vue's Options API (data, methods, mixins…) is
+    // left out of the runtime the phone downloads.
+    vue: { features: { optionsAPI: false } },
   },
   typescript: { strict: true },
   eslint: { config: { stylistic: false } },

@@ -39,10 +39,13 @@ describe('what the phone downloads', () => {
 
     const own = [...page].filter((f) => !entry.has(f)).reduce((sum, f) => sum + gzipped(f), 0)
     const all = [...new Set([...page, ...entry])].reduce((sum, f) => sum + gzipped(f), 0)
-    // Budgets with some room: about 17 KB and 100 KB gzipped when first written; the page's own
-    // code was 31 KB once it gained the offline copy, pockets, the one-bit swap and corrections.
-    expect(own).toBeLessThan(36 * 1024)
-    expect(all).toBeLessThan(120 * 1024)
+    // Budgets with a little room over what was reached (docs/performance.md, the cutter page on a
+    // phone): the page's own code 23.7 KB and everything 108.5 KB gzipped at level 9 (about 96 KB as
+    // sent, brotli), in five files: the entry, the "app" and "cutter" chunks (nuxt.config.ts) and
+    // the facades of the page and its layout. Thirty-odd small files cost a phone a request each.
+    expect(own).toBeLessThan(26 * 1024)
+    expect(all).toBeLessThan(112 * 1024)
+    expect(new Set([...page, ...entry]).size).toBeLessThanOrEqual(5)
   })
 
   it('only the scan page reaches the decoder, and only through a dynamic import', () => {
