@@ -92,9 +92,9 @@ async function makeShop(db: Db): Promise<Fixture> {
   return { shopId, userId: me.id, cookie, cutters: ids, materials: materialIds }
 }
 
-/** Empties the logs and their roll-ups and resets the cutters, so both runs start alike. */
+/** Empties the logs, their roll-ups and the rows that point at them, and resets the cutters, so both runs start alike. */
 async function resetLogs(db: Db, shopId: number): Promise<void> {
-  await sql`truncate cut_logs, cutter_events, cut_log_daily, cut_sharp_lives`.execute(db)
+  await sql`truncate cut_logs, cut_log_changes, nc_run_logs, cutter_events, cut_log_daily, cut_sharp_lives`.execute(db)
   await db.updateTable('cutters').set({ life_used: 0, minutes_this_life: 0, minutes_total: 0 }).where('shop_id', '=', shopId).execute()
   await sql`vacuum analyze`.execute(db)
   await sql`checkpoint`.execute(db)

@@ -35,6 +35,8 @@ const PG_PORT = num('KERFBOOK_PHONE_PG_PORT', 55453)
 const APP_PORT = num('KERFBOOK_PHONE_APP_PORT', 3355)
 const RUNS = num('KERFBOOK_PHONE_RUNS', 5)
 const LIGHTHOUSE = process.env.KERFBOOK_PHONE_LIGHTHOUSE !== '0'
+/** KERFBOOK_PHONE_FILES=1 lists each script of the first visit with its size, to see what the page loads. */
+const LIST_FILES = process.env.KERFBOOK_PHONE_FILES === '1'
 const CHROMIUM = process.env.KERFBOOK_CHROMIUM || '/usr/bin/chromium'
 const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
   '--disable-component-update', '--disable-sync']
@@ -167,13 +169,13 @@ async function measure(browser: Browser, codes: [string, string], cookie: string
     downloadThroughput: (PROFILE.downKbps * 1000) / 8, uploadThroughput: (PROFILE.upKbps * 1000) / 8,
   })
   await cdp.send('Emulation.setCPUThrottlingRate', { rate: PROFILE.cpuSlowdown })
-  const scripts = new Map<string, { encoded: boolean }>()
+  const scripts = new Map<string, { encoded: boolean, url: string }>()
   const sizes = new Map<string, number>()
   let counting = true
   cdp.on('Network.responseReceived', (e) => {
     if (!counting || e.type !== 'Script') return
     const headers = Object.fromEntries(Object.entries(e.response.headers).map(([k, v]) => [k.toLowerCase(), String(v)]))
-    scripts.set(e.requestId, { encoded: Boolean(headers['content-encoding']) })
+    scripts.set(e.requestId, { encoded: Boolean(headers['content-encoding']), url: e.response.url })
   })
   cdp.on('Network.loadingFinished', (e) => {
     if (counting && scripts.has(e.requestId)) sizes.set(e.requestId, e.encodedDataLength)
@@ -193,6 +195,9 @@ async function measure(browser: Browser, codes: [string, string], cookie: string
   const fcpMs = await page.evaluate(() => performance.getEntriesByName('first-contentful-paint')[0]?.startTime ?? NaN)
   const total = [...sizes.values()].reduce((a, b) => a + b, 0)
   const compressed = [...sizes.entries()].filter(([id]) => scripts.get(id)?.encoded).reduce((a, [, b]) => a + b, 0)
+  if (LIST_FILES) {
+    for (const [id, bytes] of [...sizes.entries()].sort((a, b) => b[1] - a[1])) say(`    ${(bytes / 1024).toFixed(1).padStart(6)} KB  ${scripts.get(id)!.url.replace(BASE, '')}`)
+  }
 
   // A repeat scan: the next label, in the same browser, with its cache and any service worker warm.
   const again = Date.now()

@@ -260,6 +260,13 @@ describe('many corrections and voids keep every total equal to a recount', () =>
       expect(cutter.life_used).toBeCloseTo(recount.lifeUsed, 6)
     }
     await expectRollUpsMatchRecount(fresh.id)
+    // The cut form's "longest logged cut of this type" is the recount's max over the logs still
+    // counting: the voided 5-minute log and the corrections that lowered minutes leave no trace.
+    const longest = await withDb(async (db) => (await sql<{ minutes: number }>`
+      select max(l.minutes)::float8 as minutes from cut_logs l join cutters c on c.id = l.cutter_id
+      where l.shop_id = ${fresh.id} and c.type_id = ${f.typeId} and l.voided_at is null`.execute(db)).rows[0]!.minutes)
+    const page = (await fresh.operator.get(`/api/cutters/${f.cutters[0]!.id}`)).body
+    expect(page.usual.longestCutMinutes).toBe(longest)
     // Demand is lives used per day over 90 days in cutters; recounted from the logs still counting.
     const lives = await withDb(async (db) => (await sql<{ lives: number }>`
       select coalesce(sum(l.minutes * l.wear_factor / t.rated_life_minutes), 0)::float8 as lives
@@ -268,5 +275,9 @@ describe('many corrections and voids keep every total equal to a recount', () =>
     const row = (await fresh.crib.get('/api/reorder')).body.find((r: { typeId: number }) => r.typeId === f.typeId)
     expect(row.dailyDemand).toBeCloseTo(lives / 90 / row.livesPerCutter, 9)
     expect(row.dailyDemand).toBeLessThan(demandBefore)
+    // A longer log raises it for every cutter of the type.
+    const newLongest = longest + 60
+    await cut(fresh.operator, f.cutters[1]!.id, materials[0]!.id, newLongest)
+    expect((await fresh.operator.get(`/api/cutters/${f.cutters[2]!.id}`)).body.usual.longestCutMinutes).toBe(newLongest)
   })
 })

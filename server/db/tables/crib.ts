@@ -47,6 +47,8 @@ export interface CutterTypesTable {
   max_on_hand: number | null
   spares_per_machine: number | null
   do_not_reorder: Generated<boolean>
+  /** The longest minutes of one counting log of the type, kept by a trigger on cut_logs; null before the first. */
+  longest_cut_minutes: Generated<number | null>
   active: Generated<boolean>
   created_at: Stamp
 }

@@ -2,7 +2,7 @@
 // in the shop's materials, and the last few cut logs. One place builds it for every route.
 import { dueAction, dueReason } from '#shared/kerf/due'
 import { remainingMinutes } from '#shared/kerf/life'
-import type { Queryable } from '../../db/connect'
+import { PREPARED, type Queryable } from '../../db/connect'
 
 const RECENT_CUTS = 5
 
@@ -17,16 +17,19 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       'm.name as machine_name', 's.life_threshold', 's.shift_minutes',
       't.id as type_id', 't.name as type_name', 't.rated_life_minutes', 't.flutes', 't.cutting_diameter_mm', 't.shank_diameter_mm',
       't.helix', 't.profile', 't.v_angle_deg', 't.tool_material', 't.max_regrinds', 't.regrind_diameter_loss_mm', 't.min_usable_diameter_mm',
+      // The type's longest logged cut (kept by a trigger on the logs), against which the cut form weighs a new one.
+      't.longest_cut_minutes',
     ])
     .where('c.shop_id', '=', shopId)
   query = 'id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code)
-  const c = await query.executeTakeFirst()
+  // Prepared, as the log-a-cut statements are: every cutter page and every logged cut reads these.
+  const c = await query.modifyEnd(PREPARED).executeTakeFirst()
   if (!c) return undefined
 
-  const [materials, cuts, longest] = await Promise.all([
+  const [materials, cuts] = await Promise.all([
     db.selectFrom('materials').select(['id', 'name', 'wear_factor', 'common'])
       .where('shop_id', '=', shopId).where('active', '=', true)
-      .orderBy('common', 'desc').orderBy('name').execute(),
+      .orderBy('common', 'desc').orderBy('name').modifyEnd(PREPARED).execute(),
     db.selectFrom('cut_logs as l')
       .innerJoin('materials as mt', (j) => j.onRef('mt.id', '=', 'l.material_id').onRef('mt.shop_id', '=', 'l.shop_id'))
       .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'l.machine_id').onRef('m.shop_id', '=', 'l.shop_id'))
@@ -36,13 +39,8 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       .where('l.shop_id', '=', shopId).where('l.cutter_id', '=', c.id).where('l.voided_at', 'is', null)
       .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
       .limit(RECENT_CUTS)
+      .modifyEnd(PREPARED)
       .execute(),
-    // The type's longest logged cut, against which the cut form weighs a new one.
-    db.selectFrom('cut_logs as l')
-      .innerJoin('cutters as lc', (j) => j.onRef('lc.id', '=', 'l.cutter_id').onRef('lc.shop_id', '=', 'l.shop_id'))
-      .select((eb) => eb.fn.max('l.minutes').as('minutes'))
-      .where('l.shop_id', '=', shopId).where('lc.type_id', '=', c.type_id)
-      .executeTakeFirst(),
   ])
 
   const forDue = { status: c.status, lifeUsed: c.life_used, flagged: c.flagged, regrindCount: c.regrind_count, diameterMm: c.diameter_mm }
@@ -64,7 +62,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     receivedAt: c.received_at,
     lifeThreshold: c.life_threshold,
     /** What the cut form weighs a new log's minutes against. */
-    usual: { shiftMinutes: c.shift_minutes, longestCutMinutes: longest?.minutes == null ? null : Number(longest.minutes) },
+    usual: { shiftMinutes: c.shift_minutes, longestCutMinutes: c.longest_cut_minutes },
     due: reason && {
       reason,
       action: dueAction(forDue, {
