@@ -40,11 +40,12 @@ describe("dates in the reader's words, on the shop's clock", () => {
     await signIn(page, shop.emails.owner, TEST_PASSWORD)
     const code = fx.cutters[0]!.code
 
-    for (const path of [`/crib/cutters/${fx.cutters[0]!.id}`, `/c/${code}`]) {
+    // The crib's history of the cutter (headed by its code) and the cutter page (by its type).
+    for (const [path, heading] of [[`/crib/cutters/${fx.cutters[0]!.id}`, code], [`/c/${code}`, 'Two-flute upcut 1/4"']] as const) {
       const answer = await page.goto(path)
       const served = timesIn(await answer!.text())
       await hydrated(page)
-      await page.getByRole('heading', { level: 1, name: code }).waitFor()
+      await page.getByRole('heading', { level: 1, name: heading }).waitFor()
       expect(served.length, `${path} shows dates`).toBeGreaterThan(0)
       expect(await page.locator('time').allTextContents(), `${path}: the browser keeps the server's words`).toEqual(served)
       await check(path.startsWith('/c/') ? 'cutter-page' : 'cutter-history')
