@@ -24,15 +24,18 @@ export function addDays(day: string, offset: number): string {
   return new Date(Date.UTC(y, m - 1, d + offset)).toISOString().slice(0, 10)
 }
 
-/** The first instant of a day of the shop: its local midnight (or the first local time after it). */
-export function dayStart(day: string, timeZone: string): Date {
+/**
+ * The first instant of a day of the shop, `offset` days after `day`: its local midnight (or the
+ * first local time after it, where a daylight-saving change skips midnight).
+ */
+export function dayStart(day: string, timeZone: string, offset = 0): Date {
   const [y, m, d] = parts(day)
-  return new Date(new TZDate(y, m - 1, d, timeZone).getTime())
+  return new Date(new TZDate(y, m - 1, d + offset, timeZone).getTime())
 }
 
 /** The shop's days from `from` to `to`, both included, as the instants they run between. */
 export function dayRange(from: string, to: string, timeZone: string): DateRange {
-  return { from, to, start: dayStart(from, timeZone), end: dayStart(addDays(to, 1), timeZone), timeZone }
+  return { from, to, start: dayStart(from, timeZone), end: dayStart(to, timeZone, 1), timeZone }
 }
 
 /** The last `days` days of the shop up to and including its today. */

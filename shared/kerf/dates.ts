@@ -2,8 +2,6 @@
 // shop's clock (its IANA time zone), through Intl so the browser, the server, the PDF and the
 // mail all word a moment the same way. A calendar day ('YYYY-MM-DD', a report day, a roll-up
 // day) is already the shop's day and is shown as it is, with no zone to convert. Pure.
-import { tz, tzOffset } from '@date-fns/tz'
-import { format } from 'date-fns'
 
 export interface DateStyle {
   /** BCP 47 tag, e.g. 'en-GB'. */
@@ -56,14 +54,25 @@ export function showDay(day: string, locale: string): string {
   return formatter({ locale, timeZone: 'UTC' }, DATE).format(new Date(`${day.slice(0, 10)}T12:00:00Z`))
 }
 
+/** The shop's calendar date of a moment as numbers (month 1 to 12), read through Intl. */
+function shopDate(at: string | Date, timeZone: string): { y: number, m: number, d: number } {
+  const parts = formatter({ locale: 'en-US', timeZone }, { year: 'numeric', month: 'numeric', day: 'numeric', era: 'short' })
+    .formatToParts(toDate(at))
+  const part = (type: Intl.DateTimeFormatPartTypes) => Number(parts.find((p) => p.type === type)?.value)
+  const year = part('year')
+  return { y: parts.find((p) => p.type === 'era')?.value === 'BC' ? 1 - year : year, m: part('month'), d: part('day') }
+}
+
 /** The shop's calendar day of a moment, 'YYYY-MM-DD'. */
 export function shopDay(at: string | Date, timeZone: string): string {
-  return format(toDate(at), 'yyyy-MM-dd', { in: tz(timeZone) })
+  const { y, m, d } = shopDate(at, timeZone)
+  return `${String(y).padStart(4, '0')}-${String(m).padStart(2, '0')}-${String(d).padStart(2, '0')}`
 }
 
 /** The shop's calendar day of a moment as a day number (days since 1970-01-01), for counting days. */
 export function shopDayNumber(at: Date, timeZone: string): number {
-  return Math.floor((at.getTime() + tzOffset(timeZone, at) * 60_000) / 86_400_000)
+  const { y, m, d } = shopDate(at, timeZone)
+  return Math.round(Date.UTC(y, m - 1, d) / 86_400_000)
 }
 
 const ages = new Map<string, Intl.RelativeTimeFormat>()

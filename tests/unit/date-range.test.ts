@@ -34,6 +34,10 @@ describe('date ranges', () => {
     expect(tokyo.end.getTime() - tokyo.start.getTime()).toBe(24 * 3_600_000)
   })
 
+  it('a range at the end of the calendar still has a valid end (the fuzz found one that had none)', () => {
+    expect(dayRange('9999-12-31', '9999-12-31', 'UTC').end.toISOString()).toBe('+010000-01-01T00:00:00.000Z')
+  })
+
   it('adds calendar days across month and year ends', () => {
     expect(addDays('2026-12-31', 1)).toBe('2027-01-01')
     expect(addDays('2024-03-01', -1)).toBe('2024-02-29')
