@@ -60,7 +60,7 @@ async function freshDatabase(): Promise<void> {
   }
 }
 
-interface Fixture { shopId: number, userId: number, cookie: string, cutters: number[], materials: number[] }
+interface Fixture { shopId: number, userId: number, sessionId: string, cookie: string, cutters: number[], materials: number[] }
 
 /** Signs a shop up through the app (its owner, materials, chip loads) and loads cutters into its machines. */
 async function makeShop(db: Db): Promise<Fixture> {
@@ -89,7 +89,9 @@ async function makeShop(db: Db): Promise<Fixture> {
   if (ids.at(-1)! - ids[0]! !== ids.length - 1) throw new Error('cutter ids are not consecutive')
   const materialIds = materials.map((m) => m.id)
   if (materialIds.at(-1)! - materialIds[0]! !== materialIds.length - 1) throw new Error('material ids are not consecutive')
-  return { shopId, userId: me.id, cookie, cutters: ids, materials: materialIds }
+  // The session the sign-up started, which every request of (a) reads; (b) reads the same row.
+  const session = await db.selectFrom('user_sessions').select('id').where('user_id', '=', me.id).executeTakeFirstOrThrow()
+  return { shopId, userId: me.id, sessionId: session.id, cookie, cutters: ids, materials: materialIds }
 }
 
 /** Empties the logs, their roll-ups and the rows that point at them, and resets the cutters, so both runs start alike. */
@@ -264,7 +266,7 @@ async function runPgbench(f: Fixture, seconds: number, log: boolean): Promise<Fi
       '-h', '127.0.0.1', '-p', String(PG_PORT), '-U', 'postgres', '-n', '-M', PGBENCH_MODE,
       '-c', String(CONNECTIONS), '-j', String(Math.min(os.cpus().length, CONNECTIONS)), '-T', String(seconds),
       '-f', script,
-      '-D', `shop=${f.shopId}`, '-D', `user=${f.userId}`, '-D', `first_cutter=${f.cutters[0]}`, '-D', `cutters=${f.cutters.length}`,
+      '-D', `shop=${f.shopId}`, '-D', `user=${f.userId}`, '-D', `sid=${f.sessionId}`, '-D', `first_cutter=${f.cutters[0]}`, '-D', `cutters=${f.cutters.length}`,
       '-D', `first_material=${f.materials[0]}`, '-D', `materials=${f.materials.length}`,
       ...(log ? ['-l', `--log-prefix=${path.join(dir, 'tx')}`] : []),
       DB_NAME,

@@ -90,8 +90,15 @@ describe('life used through the route (Palmgren–Miner linear damage rule)', ()
     expect(remainingMdf).toBeCloseTo(((1 - expected) * 600) / mdf.wearFactor, 1)
     expect(view.recentCuts[0]).toMatchObject({ minutes: 90, materialName: 'Aluminium composite panel', rpm: 18000, note: 'sign faces', operatorName: 'Test Operator' })
 
+    // A log that waited on a phone (an hour old, so not the newest) and names another machine:
+    // the answer's recent cuts are in the order and with the names a fresh read gives.
+    const late = await cut(shop.operator, c.id, { materialId: mdf.id, minutes: 15, machineId: fx.machines.other, cutAt: new Date(Date.now() - 3_600_000).toISOString() })
+    expect(late.status).toBe(201)
+    expect(late.body.cutter).toEqual((await shop.operator.get(`/api/cutters/${c.id}`)).body)
+    expect(late.body.cutter.recentCuts.map((r: { minutes: number }) => r.minutes)).toEqual([90, 120, 15])
+
     const { events } = await dbRow(c.id)
-    expect(events.filter((e) => e.kind === 'cut_logged')).toHaveLength(2)
+    expect(events.filter((e) => e.kind === 'cut_logged')).toHaveLength(3)
   })
 })
 
@@ -286,6 +293,7 @@ describe('returning and flagging', () => {
     await shop.operator.post(`/api/cutters/${c.id}/load`, { machineId: fx.machines.changer })
     const res = await cut(shop.operator, c.id, { materialId: material.HDPE!.id, minutes: 4, outcome: 'broken' })
     expect(res.body.status).toBe('retired')
+    expect(res.body.cutter).toEqual((await shop.operator.get(`/api/cutters/${c.id}`)).body)
     expect((await dbRow(c.id)).cutter).toMatchObject({ retired_reason: 'broken', machine_id: null })
   })
 })

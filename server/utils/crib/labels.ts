@@ -1,8 +1,13 @@
 // Which cutters a label sheet prints, chosen by id list, by cutter type (its stock) or by the
-// purchase order they came in on; always within one shop.
+// purchase order they came in on, always within one shop; and the sheet itself: for each cutter
+// its code, the URL its QR code opens, the type in short and the QR code as SVG, so that the
+// sheet needs no further requests.
+import QRCode from 'qrcode'
+import { cutterPageUrl, typeShort } from '#shared/kerf/labels'
+import { QR_QUIET_MODULES } from '#shared/kerf/label-sizes'
+import { MAX_LABELS } from '#shared/schemas/labels'
 import type { Queryable } from '../../db/connect'
-
-export const MAX_LABELS = 500
+import type { SessionUser } from '../platform/auth'
 
 export type LabelSelector = { ids: number[] } | { typeId: number } | { orderId: number }
 
@@ -52,4 +57,23 @@ function atMostMax<T>(rows: T[]): T[] {
     throw createError({ statusCode: 400, statusMessage: `That is more than ${MAX_LABELS} cutters. Print at most ${MAX_LABELS} labels at a time: pick cutters by id instead.` })
   }
   return rows
+}
+
+export async function labelSheet(db: Queryable, user: SessionUser, selector: LabelSelector, base: string) {
+  const { title, rows } = await loadLabelCutters(db, user.shopId, selector)
+  const labels = await Promise.all(rows.map(async (c) => {
+    const url = cutterPageUrl(base, c.code)
+    return {
+      id: c.id,
+      code: c.code,
+      url,
+      typeName: c.typeName,
+      short: typeShort({ cuttingDiameterMm: c.cutting_diameter_mm, profile: c.profile, vAngleDeg: c.v_angle_deg, flutes: c.flutes, helix: c.helix }, user.lengthUnit),
+      // Each with its quiet zone of four modules inside the drawing, so that no layout can crowd it.
+      qrSvg: await QRCode.toString(url, { type: 'svg', errorCorrectionLevel: 'M', margin: QR_QUIET_MODULES }),
+      // The smallest label's: fewer modules, each larger on 18 mm.
+      qrSvgLow: await QRCode.toString(url, { type: 'svg', errorCorrectionLevel: 'L', margin: QR_QUIET_MODULES }),
+    }
+  }))
+  return { title, labels }
 }

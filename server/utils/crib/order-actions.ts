@@ -1,15 +1,18 @@
 // Sending a purchase order to its supplier and receiving a delivery against it: the two writes
-// that move an order along, each one transaction under the order's row lock.
+// that move an order along, each one transaction under the order's row lock; and drafting orders
+// from the reorder suggestions.
+import { sql } from 'kysely'
 import type { ReceiveOrderBody } from '#shared/schemas/orders'
 import type { z } from 'zod'
 import type { Db } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
 import { sendShopMail } from '../platform/shop-mail'
 import { fieldError } from '../platform/validation'
-import { lockOrder } from './order-lines'
+import { lockOrder, replaceOrderLines } from './order-lines'
 import { orderPdf } from './order-pdf'
 import { orderLetterhead, orderMail, orderNumber, orderView } from './orders'
 import { createCutters } from './receiving'
+import { reorderRows } from './reorder'
 
 /**
  * Sends a draft order to its supplier by e-mail, with the purchase order attached as a PDF. The
@@ -86,4 +89,44 @@ export async function receiveOrder(db: Db, user: SessionUser, id: number, body: 
     cutters: created.map((c) => ({ id: c.id, code: c.code, typeId: c.type_id })),
     labelsUrl: `/labels?ids=${created.map((c) => c.id).join(',')}`,
   }
+}
+
+// The first key of the advisory lock that makes a shop's drafts from suggestions take turns.
+const DRAFT_LOCK = 0x44524654
+
+/**
+ * Turns reorder suggestions into draft purchase orders, one per supplier; a supplier's open draft
+ * gets the new lines instead of a second draft. Idempotent per supplier: the shop's drafts are
+ * made under one lock, so pressing twice at once finds the first press's draft and sets the same
+ * quantities on it again. Types without a supplier or not below their reorder point are skipped, with why.
+ */
+export async function draftOrdersFromSuggestions(db: Db, user: SessionUser, typeIds: number[]) {
+  const rows = (await reorderRows(db, user.shopId)).filter((r) => typeIds.includes(r.typeId))
+  const skipped: Array<{ typeId: number, typeName: string, reason: string }> = []
+  const bySupplier = new Map<number, typeof rows>()
+  for (const r of rows) {
+    if (!r.supplierId) skipped.push({ typeId: r.typeId, typeName: r.typeName, reason: 'has no supplier in the catalogue' })
+    else if (r.suggestedQty <= 0) skipped.push({ typeId: r.typeId, typeName: r.typeName, reason: 'is not below its reorder point' })
+    else bySupplier.set(r.supplierId, [...(bySupplier.get(r.supplierId) ?? []), r])
+  }
+  const orderIds = await db.transaction().execute(async (tx) => {
+    await sql`select pg_advisory_xact_lock(${DRAFT_LOCK}, ${user.shopId})`.execute(tx)
+    const ids: number[] = []
+    for (const [supplierId, suggestions] of bySupplier) {
+      const draft = await tx.selectFrom('purchase_orders').select('id')
+        .where('shop_id', '=', user.shopId).where('supplier_id', '=', supplierId).where('status', '=', 'draft')
+        .orderBy('id', 'desc').forUpdate().executeTakeFirst()
+      const orderId = draft?.id ?? (await tx.insertInto('purchase_orders')
+        .values({ shop_id: user.shopId, supplier_id: supplierId, created_by: user.id, note: '' })
+        .returning('id').executeTakeFirstOrThrow()).id
+      const existing = await tx.selectFrom('purchase_order_lines').select(['type_id', 'quantity', 'unit_cost_cents'])
+        .where('shop_id', '=', user.shopId).where('order_id', '=', orderId).execute()
+      const lines = new Map(existing.map((l) => [l.type_id, { typeId: l.type_id, quantity: l.quantity, unitCostCents: l.unit_cost_cents }]))
+      for (const s of suggestions) lines.set(s.typeId, { typeId: s.typeId, quantity: s.suggestedQty, unitCostCents: s.unitCostCents })
+      await replaceOrderLines(tx, user.shopId, orderId, [...lines.values()])
+      ids.push(orderId)
+    }
+    return ids
+  })
+  return { orderIds, skipped }
 }

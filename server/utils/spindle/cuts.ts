@@ -2,10 +2,11 @@
 // statement (so together or not at all); the client's idempotency key makes a retry (after a
 // dropped connection, or from the phone's queue) return the first log instead of counting twice.
 // A new log is two statements, both prepared once per connection and neither inside an explicit
-// transaction: one read (the cutter with its type, the material, the machine and any log already
-// sent with this key) and one that writes the log, the totals and the event if the cutter is still
-// as read, and answers the new totals. Holding no transaction open between them keeps PostgreSQL's
-// connections from waiting on the app, which was most of a log's time under load.
+// transaction: one read (the cutter as the pages show it, the material, the machine and any log
+// already sent with this key) and one that writes the log, the totals and the event if the cutter
+// is still as read, and answers the new totals; the answer's cutter view is the read's, with those
+// totals and the new log, so it costs no third statement. Holding no transaction open between
+// them keeps PostgreSQL's connections from waiting on the app, which was most of a log's time under load.
 import { sql } from 'kysely'
 import { lifeAdded, roundLife } from '#shared/kerf/life'
 import type { CutLogBody } from '#shared/schemas/spindle'
@@ -16,13 +17,13 @@ import type { CutterStatus } from '../../db/schema'
 import type { CutLogsTable } from '../../db/tables/spindle'
 import { notFound, type SessionUser } from '../platform/auth'
 import { badField, isUniqueViolation } from '../platform/validation'
-import { requireCutterView } from './cutter-view'
+import { cutterViewQuery, RECENT_CUTS, requireCutterView, toCutterView, type CutterView, type RecentCutRow } from './cutter-view'
 import { eventRow, STATUS_SENTENCE } from './spindle'
 
 type CutLogInput = z.output<typeof CutLogBody>
 
 const LOG_COLUMNS = ['id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
-  'rpm', 'feed_mm_per_min', 'outcome', 'cleanup_minutes_per_part', 'note', 'idempotency_key', 'cut_at'] as const
+  'rpm', 'feed_mm_per_min', 'outcome', 'cleanup_minutes_per_part', 'note', 'idempotency_key', 'cut_at', 'created_at'] as const
 // Typed, because a union of selects gives untyped parameters the type text.
 const EVENT_TYPES = {
   shop_id: 'integer', cutter_id: 'integer', kind: 'text', from_status: 'text', to_status: 'text', machine_id: 'integer',
@@ -35,22 +36,23 @@ const KEY_USED = 'This idempotency key was already used for another cutter. Send
 // failing the log (the cutter is long due by then).
 const MAX_LIVES = 9999
 
-/** The cutter (404 when not in the shop) with what the log needs, and any log already sent with the key. */
+/**
+ * The cutter as the pages show it (404 when not in the shop), with what the log needs: the
+ * material, the machine named in the log, and any log already sent with the key. The view read
+ * here is the one the answer shows, updated with what the write returns.
+ */
 async function readForLog(db: Db, shopId: number, id: number, body: CutLogInput) {
-  const row = await db.selectFrom('cutters as c')
-    .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
-    .leftJoin('materials as m', (j) => j.onRef('m.shop_id', '=', 'c.shop_id').on('m.id', '=', body.materialId).on('m.active', '=', true))
+  const row = await cutterViewQuery(db, shopId)
+    .leftJoin('materials as mat', (j) => j.onRef('mat.shop_id', '=', 'c.shop_id').on('mat.id', '=', body.materialId).on('mat.active', '=', true))
     .leftJoin('cut_logs as e', (j) => j.onRef('e.shop_id', '=', 'c.shop_id').on('e.idempotency_key', '=', body.idempotencyKey))
-    .select(['c.code', 'c.status', 'c.machine_id', 'c.regrind_count', 'c.life_scale', 'c.life_used', 'c.minutes_total', 't.rated_life_minutes',
-      'm.id as material_id', 'm.wear_factor', 'e.id as earlier_id'])
-    .$if(body.machineId != null, (q) => q.select((eb) => eb.exists(
-      eb.selectFrom('machines as mc').select('mc.id').whereRef('mc.shop_id', '=', 'c.shop_id').where('mc.id', '=', body.machineId!),
-    ).as('machine_found')))
-    .where('c.shop_id', '=', shopId).where('c.id', '=', id)
+    .select(['mat.id as material_id', 'mat.name as material_name', 'mat.wear_factor', 'e.id as earlier_id'])
+    .$if(body.machineId != null, (q) => q.select((eb) => eb.selectFrom('machines as mc').select('mc.name')
+      .whereRef('mc.shop_id', '=', 'c.shop_id').where('mc.id', '=', body.machineId!).as('log_machine_name')))
+    .where('c.id', '=', id)
     .modifyEnd(PREPARED)
     .executeTakeFirst()
   if (!row) notFound('cutter')
-  return row as typeof row & { machine_found?: boolean }
+  return row as typeof row & { log_machine_name?: string | null }
 }
 
 /**
@@ -77,7 +79,7 @@ async function assertWasLoaded(db: Db, shopId: number, id: number, cutter: { cod
 }
 
 /** What came of one try: the log (new or sent before), or `stale` when the cutter changed meanwhile. */
-type Attempt = { replay: boolean, log: CutLogRow, totals: { life_used: number, minutes_total: number, status: CutterStatus } } | 'stale'
+type Attempt = { replay: boolean, log: CutLogRow, totals: { life_used: number, minutes_total: number, status: CutterStatus }, view?: CutterView } | 'stale'
 type CutLogRow = Pick<Selectable<CutLogsTable>, typeof LOG_COLUMNS[number]>
 
 /**
@@ -95,7 +97,7 @@ async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInpu
     return { replay: true, log: earlier, totals: { life_used: cutter.life_used, minutes_total: cutter.minutes_total, status: cutter.status } }
   }
   if (cutter.material_id == null || cutter.wear_factor == null) badField('materialId', 'no such material in your shop')
-  if (body.machineId != null && !cutter.machine_found) badField('machineId', 'no such machine in your shop')
+  if (body.machineId != null && cutter.log_machine_name == null) badField('machineId', 'no such machine in your shop')
   await assertWasLoaded(db, user.shopId, id, cutter, cutAt, body.cutAt !== undefined)
   const machineId = body.machineId ?? cutter.machine_id
 
@@ -120,7 +122,7 @@ async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInpu
       .where('shop_id', '=', user.shopId).where('id', '=', id)
       // Still the life and status the figures were worked out for.
       .where('status', '=', cutter.status).where('regrind_count', '=', cutter.regrind_count).where('life_scale', '=', cutter.life_scale)
-      .returning(['life_used', 'minutes_total', 'status']))
+      .returning(['life_used', 'minutes_total', 'minutes_this_life', 'status', 'machine_id', 'flagged', 'flagged_at', 'retired_reason']))
     // The log (its trigger keeps the roll-ups) and the events, only when the cutter row was updated.
     .with('log', (db) => db.insertInto('cut_logs').columns([
       'shop_id', 'cutter_id', 'machine_id', 'operator_id', 'material_id', 'minutes', 'wear_factor', 'life_added',
@@ -139,13 +141,29 @@ async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInpu
     }).returning('id'))
     .selectFrom(['log', 'cutter'])
     .selectAll('log')
-    .select(['cutter.life_used', 'cutter.minutes_total', 'cutter.status'])
+    .select(['cutter.life_used', 'cutter.minutes_total', 'cutter.minutes_this_life', 'cutter.status', 'cutter.machine_id as cutter_machine_id',
+      'cutter.flagged', 'cutter.flagged_at', 'cutter.retired_reason'])
     .modifyEnd(PREPARED)
     .executeTakeFirst()
   if (!written) return 'stale'
-  const { life_used, minutes_total, status, ...log } = written
-  return { replay: false, log, totals: { life_used, minutes_total, status } }
+  const { life_used, minutes_total, minutes_this_life, status, cutter_machine_id, flagged, flagged_at, retired_reason, ...log } = written
+  // The view as read before the write, with the write's totals and the new log among the recent ones.
+  const newCut: RecentCutRow = {
+    id: log.id, cut_at: log.cut_at, created_at: log.created_at, minutes: log.minutes, outcome: log.outcome, rpm: log.rpm,
+    feed_mm_per_min: log.feed_mm_per_min, note: log.note, material_id: log.material_id, operator_id: user.id,
+    material_name: cutter.material_name!, machine_name: body.machineId != null ? cutter.log_machine_name ?? null : cutter.machine_name, operator_name: user.name,
+  }
+  const view = toCutterView({
+    ...cutter, life_used, minutes_total, minutes_this_life, status, machine_id: cutter_machine_id, flagged, flagged_at, retired_reason,
+    machine_name: cutter_machine_id === null ? null : cutter.machine_name,
+    longest_cut_minutes: Math.max(cutter.longest_cut_minutes ?? 0, log.minutes),
+    cuts: [newCut, ...cutter.cuts].sort(newestFirst).slice(0, RECENT_CUTS),
+  })
+  return { replay: false, log, totals: { life_used, minutes_total, status }, view }
 }
+
+/** Recent cuts as the view orders them: by cut time, then by id, newest first. */
+const newestFirst = (a: RecentCutRow, b: RecentCutRow) => new Date(b.cut_at).getTime() - new Date(a.cut_at).getTime() || Number(b.id) - Number(a.id)
 
 async function writeCut(db: Db, user: SessionUser, id: number, body: CutLogInput, cutAt: Date) {
   for (let attempt = 0; attempt < 5; attempt++) {
@@ -182,6 +200,7 @@ export async function logCut(db: Db, user: SessionUser, cutterId: number, body: 
     lifeUsed: result.totals.life_used,
     minutesTotal: result.totals.minutes_total,
     status: result.totals.status,
-    cutter: await requireCutterView(db, user.shopId, { id: cutterId }),
+    // A replay answers the cutter as it is now; a new log, the view its write produced.
+    cutter: result.view ?? await requireCutterView(db, user.shopId, { id: cutterId }),
   }
 }

@@ -2,12 +2,19 @@
 // in the shop's materials, and the last few cut logs. One place builds it for every route.
 import { dueAction, dueReason } from '#shared/kerf/due'
 import { remainingMinutes } from '#shared/kerf/life'
+import { jsonArrayFrom } from 'kysely/helpers/postgres'
 import { PREPARED, type Queryable } from '../../db/connect'
 
-const RECENT_CUTS = 5
+/** How many of its latest counting logs the cutter view shows. */
+export const RECENT_CUTS = 5
 
-export async function cutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }) {
-  let query = db.selectFrom('cutters as c')
+/**
+ * The cutter view's read: the cutter with its type, shop and machine, the shop's active materials
+ * and the cutter's last few counting logs as JSON, in one statement. Logging a cut extends it with
+ * what the log needs, so that the cut's answer costs no read of its own.
+ */
+export function cutterViewQuery(db: Queryable, shopId: number) {
+  return db.selectFrom('cutters as c')
     .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
     .innerJoin('shops as s', 's.id', 'c.shop_id')
     .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'c.machine_id').onRef('m.shop_id', '=', 'c.shop_id'))
@@ -20,29 +27,37 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
       // The type's longest logged cut (kept by a trigger on the logs), against which the cut form weighs a new one.
       't.longest_cut_minutes',
     ])
+    .select((eb) => [
+      jsonArrayFrom(eb.selectFrom('materials as mt').select(['mt.id', 'mt.name', 'mt.wear_factor', 'mt.common'])
+        .whereRef('mt.shop_id', '=', 'c.shop_id').where('mt.active', '=', true)
+        .orderBy('mt.common', 'desc').orderBy('mt.name')).as('materials'),
+      jsonArrayFrom(eb.selectFrom('cut_logs as l')
+        .innerJoin('materials as lm', (j) => j.onRef('lm.id', '=', 'l.material_id').onRef('lm.shop_id', '=', 'l.shop_id'))
+        .leftJoin('machines as lmc', (j) => j.onRef('lmc.id', '=', 'l.machine_id').onRef('lmc.shop_id', '=', 'l.shop_id'))
+        .leftJoin('users as u', 'u.id', 'l.operator_id')
+        .select(['l.id', 'l.cut_at', 'l.created_at', 'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note',
+          'l.material_id', 'l.operator_id', 'lm.name as material_name', 'lmc.name as machine_name', 'u.name as operator_name'])
+        .whereRef('l.shop_id', '=', 'c.shop_id').whereRef('l.cutter_id', '=', 'c.id').where('l.voided_at', 'is', null)
+        .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
+        .limit(RECENT_CUTS)).as('cuts'),
+    ])
     .where('c.shop_id', '=', shopId)
-  query = 'id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code)
-  // Prepared, as the log-a-cut statements are: every cutter page and every logged cut reads these.
-  const c = await query.modifyEnd(PREPARED).executeTakeFirst()
-  if (!c) return undefined
+}
+export type CutterViewRow = NonNullable<Awaited<ReturnType<ReturnType<typeof cutterViewQuery>['executeTakeFirst']>>>
+/** A recent log as the view's read gives it: inside JSON the times arrive as text. */
+export type RecentCutRow = Omit<CutterViewRow['cuts'][number], 'cut_at' | 'created_at'> & { cut_at: string | Date, created_at: string | Date }
 
-  const [materials, cuts] = await Promise.all([
-    db.selectFrom('materials').select(['id', 'name', 'wear_factor', 'common'])
-      .where('shop_id', '=', shopId).where('active', '=', true)
-      .orderBy('common', 'desc').orderBy('name').modifyEnd(PREPARED).execute(),
-    db.selectFrom('cut_logs as l')
-      .innerJoin('materials as mt', (j) => j.onRef('mt.id', '=', 'l.material_id').onRef('mt.shop_id', '=', 'l.shop_id'))
-      .leftJoin('machines as m', (j) => j.onRef('m.id', '=', 'l.machine_id').onRef('m.shop_id', '=', 'l.shop_id'))
-      .leftJoin('users as u', 'u.id', 'l.operator_id')
-      .select(['l.id', 'l.cut_at', 'l.created_at', 'l.minutes', 'l.outcome', 'l.rpm', 'l.feed_mm_per_min', 'l.note',
-        'l.material_id', 'l.operator_id', 'mt.name as material_name', 'm.name as machine_name', 'u.name as operator_name'])
-      .where('l.shop_id', '=', shopId).where('l.cutter_id', '=', c.id).where('l.voided_at', 'is', null)
-      .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
-      .limit(RECENT_CUTS)
-      .modifyEnd(PREPARED)
-      .execute(),
-  ])
+export async function cutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }) {
+  const query = cutterViewQuery(db, shopId)
+  // Prepared, as the log-a-cut statements are: every cutter page reads it.
+  const c = await ('id' in where ? query.where('c.id', '=', where.id) : query.where('c.code', '=', where.code))
+    .modifyEnd(PREPARED).executeTakeFirst()
+  return c && toCutterView(c)
+}
 
+/** The cutter as the pages show it, from the view's read (or from it and a cut just written). */
+export function toCutterView(c: Omit<CutterViewRow, 'cuts'> & { cuts: RecentCutRow[] }) {
+  const { materials, cuts } = c
   const forDue = { status: c.status, lifeUsed: c.life_used, flagged: c.flagged, regrindCount: c.regrind_count, diameterMm: c.diameter_mm }
   const reason = dueReason(forDue, c.life_threshold)
   return {
@@ -90,9 +105,9 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     })),
     recentCuts: cuts.map((l) => ({
       id: l.id,
-      cutAt: l.cut_at,
+      cutAt: new Date(l.cut_at),
       /** When it was logged: its operator may correct it for 24 hours from then. */
-      loggedAt: l.created_at,
+      loggedAt: new Date(l.created_at),
       minutes: l.minutes,
       materialId: l.material_id,
       materialName: l.material_name,
@@ -106,7 +121,7 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
     })),
   }
 }
-export type CutterView = NonNullable<Awaited<ReturnType<typeof cutterView>>>
+export type CutterView = ReturnType<typeof toCutterView>
 
 /** The cutter, or a 404 that says so plainly. */
 export async function requireCutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }): Promise<CutterView> {
