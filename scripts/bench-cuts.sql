@@ -1,5 +1,5 @@
--- requireUser (server/utils/platform/auth.ts): the person and their session row, read on every request.
-select "u"."id", "u"."shop_id", "u"."role", "u"."name", "u"."email", "u"."length_unit", "u"."active", "s"."id" as "sid" from "users" as "u" left join "user_sessions" as "s" on "s"."user_id" = "u"."id" and "s"."id" = :sid and "s"."expires_at" > now() where "u"."id" = :user and "u"."shop_id" = :shop;
+-- requireUser (server/utils/platform/auth.ts): the person, their session row and any shop device it is bound to, read on every request.
+select "u"."id", "u"."shop_id", "u"."role", "u"."name", "u"."email", "u"."length_unit", "u"."active", "s"."id" as "sid", "s"."device_id", "d"."token_hash" as "device_hash" from "users" as "u" left join "user_sessions" as "s" on "s"."user_id" = "u"."id" and "s"."id" = :sid and "s"."expires_at" > now() left join "shop_devices" as "d" on "d"."id" = "s"."device_id" and "d"."revoked_at" is null where "u"."id" = :user and "u"."shop_id" = :shop;
 -- readForLog (server/utils/spindle/cuts.ts): the cutter as the pages show it (cutterViewQuery in
 -- server/utils/spindle/cutter-view.ts: with its type, shop and machine, the shop's materials and its last five
 -- logs as JSON), the material, and any log already sent with this key (no lock, no transaction).

@@ -1,5 +1,5 @@
 // The one Database type, composed from a file of tables per room.
-import type { AuthTokensTable, LoginAttemptsTable, ShopMailsTable, ShopsTable, UserSessionsTable, UsersTable } from './tables/shop'
+import type { AuthTokensTable, LoginAttemptsTable, ShopDevicesTable, ShopMailsTable, ShopsTable, UserSessionsTable, UsersTable } from './tables/shop'
 import type {
   ChipLoadsTable, CutLogChangesTable, CutLogsTable, CutterEventsTable, CuttersTable, MachinesTable, MaterialsTable, UploadsTable,
 } from './tables/spindle'
@@ -20,6 +20,7 @@ export interface Database {
   shops: ShopsTable
   users: UsersTable
   user_sessions: UserSessionsTable
+  shop_devices: ShopDevicesTable
   shop_mails: ShopMailsTable
   auth_tokens: AuthTokensTable
   login_attempts: LoginAttemptsTable

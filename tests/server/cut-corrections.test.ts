@@ -5,7 +5,7 @@
 import { randomUUID } from 'node:crypto'
 import { sql } from 'kysely'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { appDb } from '../support/db'
+import { withDb } from '../support/db'
 import { Client } from '../support/http'
 import { makeShop, TEST_PASSWORD, type TestShop } from '../support/shops'
 import { addSpindleFixture, type SpindleFixture } from '../support/spindle'
@@ -20,15 +20,6 @@ const cut = async (client: Client, cutterId: number, materialId: number, minutes
   const res = await client.post(`/api/cutters/${cutterId}/cuts`, { idempotencyKey: `fix-${randomUUID()}`, outcome: 'clean', materialId, minutes })
   expect(res.status).toBe(201)
   return Number(res.body.log.id)
-}
-
-async function withDb<T>(fn: (db: ReturnType<typeof appDb>) => Promise<T>): Promise<T> {
-  const db = appDb()
-  try {
-    return await fn(db)
-  } finally {
-    await db.destroy()
-  }
 }
 
 /** The cutter's totals, and what its counting logs add up to. */

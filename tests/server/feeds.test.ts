@@ -4,7 +4,7 @@
 import { randomUUID } from 'node:crypto'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { newLabelCode } from '../../shared/kerf/label-code'
-import { appDb } from '../support/db'
+import { withDb } from '../support/db'
 import type { Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
 import { addSpindleFixture, loadCutters, type SpindleFixture } from '../support/spindle'
@@ -18,15 +18,6 @@ let machines: { slow: number, fast: number }
 
 const feeds = (client: Client, q: Record<string, number | string | undefined>) =>
   client.get(`/api/feeds?${new URLSearchParams(Object.entries(q).filter(([, v]) => v !== undefined).map(([k, v]) => [k, String(v)]))}`)
-
-async function withDb<T>(fn: (db: ReturnType<typeof appDb>) => Promise<T>): Promise<T> {
-  const db = appDb()
-  try {
-    return await fn(db)
-  } finally {
-    await db.destroy()
-  }
-}
 
 /** A cutter type of the shop, with cutters in the given statuses. */
 async function addType(shopId: number, t: { name: string, flutes: number, helix: 'upcut' | 'downcut', profile: 'o_flute' | 'square_end', diameter: number }, statuses: Array<'in_crib' | 'at_regrind'>) {

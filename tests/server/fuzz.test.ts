@@ -108,6 +108,10 @@ const supplierFields: Fields = {
 const token = custom(fc.oneof(fc.string({ maxLength: 19 }), fc.constantFrom('a'.repeat(101), 'é'.repeat(30), `${'a'.repeat(30)}/../x`, `${'a'.repeat(30)} `,
   `${'a'.repeat(30)}\u0000`), fc.integer()))
 const password = str(200, { min: 10, trim: false })
+// A PIN is 4 to 8 ASCII digits; setting one also refuses the obvious ones.
+const wrongPins = ['123', '123456789', 'abcd', '12 34', '\uFF11\uFF12\uFF13\uFF14', '-1234', '12.4', '1e4', '']
+const pinToSet = custom(fc.oneof(fc.constantFrom(...wrongPins, '1234', '0000', '87654'), fc.integer(), fc.boolean()), { optional: true })
+const pinToTry = custom(fc.oneof(fc.constantFrom(...wrongPins), fc.integer(), fc.constant(null)))
 const uniqueName = (what: string) => `Fuzz ${what} ${randomUUID().slice(0, 8)}`
 
 // Every route that writes (POST, PATCH, PUT, DELETE), with what its body accepts.
@@ -118,6 +122,13 @@ const FUZZ: Record<string, FuzzEntry> = {
   'POST /api/auth/logout-everywhere': { special: 'reads no input: ends the caller\'s sessions (tests/server/security.test.ts)' },
   'POST /api/me/confirmation': { special: 'reads no input: sends the confirmation link again (tests/server/security.test.ts)' },
   'POST /api/auth/confirm': { who: 'none', fields: { token }, valid: () => ({ token: 'x'.repeat(43) }) },
+  // Without a device cookie even a valid body is refused (403): nothing is counted or written.
+  'POST /api/auth/pin': { who: 'none', fields: { userId: id(), pin: pinToTry }, valid: (_, s) => ({ userId: s.ids.operator, pin: '4826' }) },
+  'POST /api/devices': { fields: { name: str(60, { min: 1 }) }, valid: () => ({ name: uniqueName('tablet') }) },
+  'POST /api/devices/[id]/revoke': { pathOnly: true, params: (r) => ({ id: r.deviceId }) },
+  'POST /api/users': { fields: { name: str(120, { min: 1 }), pin: pinToSet }, valid: () => ({ name: uniqueName('operator'), pin: '4826' }) },
+  'PUT /api/users/[id]/pin': { fields: { pin: pinToSet }, valid: () => ({ pin: '4826' }), params: (_, s) => ({ id: s.ids.operator }) },
+  'DELETE /api/users/[id]/pin': { pathOnly: true, params: (_, s) => ({ id: s.ids.operator }) },
   'POST /api/users/[id]/sign-out': { pathOnly: true, params: (_, s) => ({ id: s.ids.operator }) },
   'POST /api/auth/reset-request': { who: 'none', fields: { email: email() }, valid: () => ({ email: 'fuzz-nobody@example.com' }) },
   'POST /api/auth/reset': { who: 'none', fields: { token, password }, valid: () => ({ token: 'x'.repeat(43), password: 'a-long-enough-password' }) },

@@ -30,9 +30,9 @@ describe('getting ready', () => {
     expect(res.status).toBe(200)
     expect(res.body.done).toBe(false)
     expect(res.body.steps).toEqual(GETTING_READY_STEPS.map((s) => ({ ...s, done: false })))
-    // Only owners invite people: the crib manager's operator step has no link.
+    // Only owners invite people by e-mail: the crib manager's operator step leads to adding one by name and PIN.
     const crib = (await shop.crib.get('/api/getting-ready')).body as Ready
-    expect(crib.steps.find((s) => s.key === 'operator')).toMatchObject({ to: null, done: false })
+    expect(crib.steps.find((s) => s.key === 'operator')).toMatchObject({ to: '/crib/devices', done: false })
     expect(crib.steps.find((s) => s.key === 'machine')).toMatchObject({ to: '/crib/machines' })
   })
 

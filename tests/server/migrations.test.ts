@@ -9,7 +9,7 @@ import { down as machinesDown, up as machinesUp } from '../../migrations/2026_12
 const TABLES = ['shops', 'users', 'user_sessions', 'shop_mails', 'auth_tokens', 'login_attempts', 'machines', 'materials', 'suppliers', 'cutter_types',
   'purchase_orders', 'purchase_order_lines', 'cutters', 'uploads', 'cut_logs', 'cutter_events', 'regrind_batches',
   'regrind_batch_items', 'tooling_reports', 'chip_loads', 'cut_log_daily', 'cut_sharp_lives', 'cut_cleanup_daily', 'wear_factor_adoptions',
-  'machine_tool_pockets', 'nc_programs', 'nc_runs', 'nc_run_logs', 'cut_log_changes']
+  'machine_tool_pockets', 'nc_programs', 'nc_runs', 'nc_run_logs', 'cut_log_changes', 'shop_devices']
 
 let url: string
 let db: Db

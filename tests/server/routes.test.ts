@@ -112,6 +112,22 @@ const TABLE: Record<string, Entry> = {
       expect(res.status).toBe(404)
     },
   },
+  'GET /api/auth/device': {
+    public: 'the sign-in page asks whether this browser is a shop device; the device cookie is the credential',
+    check: async ({ a }) => {
+      // No device cookie: nothing, even for a signed-in person.
+      for (const client of [noSession(), a.owner]) expect((await client.get('/api/auth/device')).body).toEqual({ device: null, operators: [] })
+    },
+  },
+  'POST /api/auth/pin': {
+    public: 'signing in by PIN on a shop device',
+    check: async ({ a }) => {
+      // Off an enrolled device even an operator of the shop is refused (tests/server/devices.test.ts).
+      const res = await noSession().post('/api/auth/pin', { userId: a.ids.operator, pin: '2580' })
+      expect(res.status).toBe(403)
+      expect(res.body.message).toMatch(/not one of the shop's devices/)
+    },
+  },
   'POST /api/tasks/report-nightly': {
     public: 'a scheduler outside the app calls it with the task token, not a session',
     check: async ({ a }) => {
@@ -235,6 +251,12 @@ const TABLE: Record<string, Entry> = {
   'PATCH /api/suppliers/[id]': { role: 'crib_manager', tenancy: ({ ra }) => ({ params: { id: ra.supplierId }, body: { name: 'Renamed by another shop' } }) },
   'GET /api/uploads/[id]': { role: 'operator', tenancy: ({ ra }) => ({ params: { id: ra.uploadId } }) },
   'GET /api/users': { role: 'owner' },
+  'POST /api/users': { role: 'crib_manager', body: () => ({ name: `Added ${randomUUID().slice(0, 8)}`, pin: '4826' }) },
+  'PUT /api/users/[id]/pin': { role: 'crib_manager', tenancy: ({ a }) => ({ params: { id: a.ids.operator }, body: { pin: '4826' } }) },
+  'DELETE /api/users/[id]/pin': { role: 'crib_manager', tenancy: ({ a }) => ({ params: { id: a.ids.operator } }) },
+  'GET /api/devices': { role: 'crib_manager' },
+  'POST /api/devices': { role: 'crib_manager', body: () => ({ name: `Tablet ${randomUUID().slice(0, 8)}` }) },
+  'POST /api/devices/[id]/revoke': { role: 'crib_manager', tenancy: ({ ra }) => ({ params: { id: ra.deviceId }, body: {} }) },
   'PATCH /api/users/[id]': { role: 'owner', tenancy: ({ a }) => ({ params: { id: a.ids.operator }, body: { role: 'owner' } }) },
   'POST /api/users/[id]/sign-out': { role: 'owner', tenancy: ({ a }) => ({ params: { id: a.ids.operator }, body: {} }) },
 }

@@ -1,5 +1,5 @@
 // A fingerprint of everything one shop holds in the database: every row of every table with a
-// shop_id column, the shop's own row, and the sign-in attempts of its people. Taken before and
+// shop_id column, the shop's own row, and the sign-in attempts of its people (by e-mail or by PIN). Taken before and
 // after a run of requests, it shows whether any of them wrote. Scoped to the shop, so tests
 // running at the same time against the same database do not disturb it.
 import { sql } from 'kysely'
@@ -30,7 +30,8 @@ export async function shopChecksum(db: Db, shopId: number): Promise<Record<strin
   sums.shops = shop.rows[0]?.sum ?? ''
   const attempts = await sql<{ sum: string | null, n: number }>`
     select md5(string_agg(a::text, '|' order by a::text)) as sum, count(*)::int as n from login_attempts a
-    where lower(a.email) in (select lower(email) from users where shop_id = ${shopId})`.execute(db)
+    where lower(a.email) in (select lower(email) from users where shop_id = ${shopId})
+       or a.email in (select 'pin:' || id from users where shop_id = ${shopId})`.execute(db)
   sums.login_attempts = `${attempts.rows[0]!.n}:${attempts.rows[0]!.sum ?? ''}`
   return sums
 }

@@ -55,3 +55,13 @@ export function appDb(): Db {
   if (!url) throw new Error('KERFBOOK_TEST_DATABASE_URL is not set: run the tests through `npm test`.')
   return connect(url, 4)
 }
+
+/** Runs `fn` with a handle on the app's database, closed afterwards. */
+export async function withDb<T>(fn: (db: Db) => Promise<T>): Promise<T> {
+  const db = appDb()
+  try {
+    return await fn(db)
+  } finally {
+    await db.destroy()
+  }
+}

@@ -20,8 +20,23 @@ async function answer<T = any>(res: Response): Promise<Answer<T>> {
 }
 
 export class Client {
-  private cookie = ''
+  // The cookies this client holds, by name (the session and, on a shop device, the device's).
+  private readonly jar = new Map<string, string>()
   constructor(private readonly extraHeaders: Record<string, string> = {}) {}
+
+  private get cookie(): string {
+    return [...this.jar].map(([name, value]) => `${name}=${value}`).join('; ')
+  }
+
+  /** The value of one cookie this client holds. */
+  cookieValue(name: string): string | undefined {
+    return this.jar.get(name)
+  }
+
+  /** Gives this client a cookie of another (a copied cookie, as a thief would use it). */
+  setCookie(name: string, value: string) {
+    this.jar.set(name, value)
+  }
 
   async request<T = any>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Answer<T>> {
     const init: RequestInit = {
@@ -40,8 +55,11 @@ export class Client {
     const setCookie = res.headers.getSetCookie()
     for (const c of setCookie) {
       const pair = c.split(';')[0]!
+      const at = pair.indexOf('=')
+      const [name, value] = [pair.slice(0, at).trim(), pair.slice(at + 1)]
       // An emptied cookie (sign-out) clears ours.
-      this.cookie = pair.endsWith('=') ? '' : pair
+      if (value) this.jar.set(name, value)
+      else this.jar.delete(name)
     }
     return answer<T>(res)
   }

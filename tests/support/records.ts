@@ -23,6 +23,8 @@ export interface ShopRecords {
   programId: number
   /** A cut logged by the owner on the cutter in the machine. */
   cutLogId: number
+  /** An enrolled shop device (its token is nobody's: only its hash is stored). */
+  deviceId: number
 }
 
 export async function addShopRecords(shopId: number, ownerId: number): Promise<ShopRecords> {
@@ -68,7 +70,11 @@ export async function addShopRecords(shopId: number, ownerId: number): Promise<S
       tools: JSON.stringify([tool]), estimates: JSON.stringify({ '1000/10000': [{ tool: 1, estimatedMinutes: 0.12, rapidMinutes: 0.01 }] }),
       tool_count: 1, total_minutes: 0.12, line_count: 5, uploaded_by: ownerId,
     }).returning('id').executeTakeFirstOrThrow()
+    const device = await db.insertInto('shop_devices').values({
+      shop_id: shopId, name: `Records tablet ${randomUUID().slice(0, 8)}`, token_hash: randomUUID(), enrolled_by: ownerId,
+    }).returning('id').executeTakeFirstOrThrow()
     return {
+      deviceId: device.id,
       programId: program.id,
       cutLogId: Number(cutLog.id),
       supplierId: fixture.supplier.id, machineId: fixture.machineId, materialId: material.id, typeId: fixture.typeId, chipLoadId: chipLoad.id,

@@ -33,9 +33,9 @@ export default defineEventHandler(async (event) => {
     throw err
   })
   await sendShopMail(owner.shopId, 'invitation', invitationMail({
-    to: user.email, name: user.name, shopName, role: user.role, invitedBy: owner.name,
+    to: body.email, name: user.name, shopName, role: user.role, invitedBy: owner.name,
     link: `${publicBaseUrl(event)}/invite/${token}`,
   }))
   setResponseStatus(event, 201)
-  return { user: { ...user, status: 'invited' as const }, message: `Invitation sent to ${user.email}.` }
+  return { user: { ...user, status: 'invited' as const }, message: `Invitation sent to ${body.email}.` }
 })

@@ -6,11 +6,12 @@ import { PasswordChangeBody } from '#shared/schemas/auth'
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const { currentPassword, newPassword } = await readValidatedBody(event, parseWith(PasswordChangeBody))
-  const attempt = await claimLoginAttempt(event, user.email, clientAddress(event))
+  // Counted with the e-mail sign-ins; one added by name only has no address and no password to guess.
+  const attempt = await claimLoginAttempt(event, user.email ?? `user:${user.id}`, clientAddress(event))
   const db = useDb()
   const row = await db.selectFrom('users').select('password_hash').where('shop_id', '=', user.shopId).where('id', '=', user.id).executeTakeFirstOrThrow()
   if (!row.password_hash || !(await verifyPassword(row.password_hash, currentPassword))) {
-    const message = row.password_hash ? 'this is not your current password' : 'this account signs in without a password; ask the owner for a reset link'
+    const message = row.password_hash ? 'this is not your current password' : user.email ? 'this account signs in without a password; ask the owner for a reset link' : 'you sign in with a PIN on the shop\'s devices; ask the crib manager to change it'
     throw createError({ statusCode: 400, statusMessage: `currentPassword: ${message}`, data: { fields: { currentPassword: message } } })
   }
   await loginSucceeded(attempt)

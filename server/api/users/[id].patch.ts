@@ -16,9 +16,16 @@ export default defineEventHandler(async (event) => {
       .where('shop_id', '=', owner.shopId).where('role', '=', 'owner').where('active', '=', true)
       .where('password_hash', 'is not', null)
       .forUpdate().execute()
-    const target = await tx.selectFrom('users').select(['id', 'role', 'active'])
+    const target = await tx.selectFrom('users').select(['id', 'name', 'role', 'active', 'email', 'password_hash'])
       .where('id', '=', id).where('shop_id', '=', owner.shopId).executeTakeFirst()
     if (!target) notFound('person')
+    // A PIN signs in operators only: someone added by name only could not sign in in another role.
+    if (body.role && body.role !== 'operator' && !target.email && !target.password_hash) {
+      fieldError({ role: 'signs in with a PIN only' }, {
+        status: 409,
+        message: `${target.name} has no e-mail address and signs in with a PIN, which works for operators only. Invite them by e-mail in the new role instead.`,
+      })
+    }
     const staysOwner = (body.role ?? target.role) === 'owner' && (body.active ?? target.active)
     if (owners.some((o) => o.id === id) && !staysOwner && owners.length <= 1) {
       throw createError({ statusCode: 409, statusMessage: 'The shop needs at least one owner. Make someone else owner first.' })

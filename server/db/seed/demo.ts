@@ -63,7 +63,8 @@ async function writeShop(tx: Tx, h: History, dayZero: number): Promise<number> {
   const users = await tx.insertInto('users')
     .values(PEOPLE.map((p) => ({ shop_id: shopId, email: p.email, name: p.name, role: p.role, password_hash: passwordHash, created_at: setUp, email_confirmed_at: setUp })))
     .returning(['id', 'email']).execute()
-  const userId = idsBy(users, 'email')
+  // Every demo person has an address (only operators added by name have none).
+  const userId = idsBy(users.map((u) => ({ id: u.id, email: u.email ?? '' })), 'email')
   const crib = userId(CRIB_EMAIL)
 
   const machines = await tx.insertInto('machines').values(MACHINES.map((m) => ({

@@ -37,10 +37,13 @@ export interface ShopsTable {
 export interface UsersTable {
   id: Generated<number>
   shop_id: number
-  email: string
+  /** Null for an operator added by name only (they sign in with a PIN on a shop device). */
+  email: string | null
   name: string
   role: Role
   password_hash: string | null
+  /** An operator's PIN for the shop's enrolled devices, hashed as passwords are. */
+  pin_hash: string | null
   length_unit: Generated<LengthUnit>
   active: Generated<boolean>
   created_at: CreatedAt
@@ -54,6 +57,21 @@ export interface UserSessionsTable {
   user_id: number
   created_at: CreatedAt
   expires_at: Date
+  /** The shop device a PIN sign-in happened on: revoking the device ends the session. */
+  device_id: number | null
+}
+
+/** A browser enrolled as one of the shop's devices; the cookie holds the token, this row its SHA-256. */
+export interface ShopDevicesTable {
+  id: Generated<number>
+  shop_id: number
+  name: string
+  token_hash: string
+  enrolled_by: number | null
+  created_at: CreatedAt
+  last_used_at: Date | null
+  revoked_at: Date | null
+  revoked_by: number | null
 }
 
 /** A mail a shop sent to others, counted for the hourly limit. */

@@ -7,7 +7,7 @@ import type { RegrindBatchView } from './regrind-view'
 import type { ShopLetterhead } from './orders'
 
 export function regrindBatchMail(m: {
-  to: string, shop: ShopLetterhead, supplierName: string, sender: { name: string, email: string }, batch: RegrindBatchView
+  to: string, shop: ShopLetterhead, supplierName: string, sender: { name: string, email: string | null }, batch: RegrindBatchView
 }): OutgoingMail {
   const shopName = m.shop.name
   const returnTo = letterheadLines(m.shop)
@@ -15,7 +15,9 @@ export function regrindBatchMail(m: {
   const bits = `${n} router bit${n === 1 ? '' : 's'}`
   const lines = m.batch.items.map((i) => `${i.code}  ${i.typeName}  ${i.diameterBeforeMm.toFixed(3)} mm`)
   const intro = `Hello ${m.supplierName}, ${shopName} is sending you ${bits} to resharpen (batch ${m.batch.number}).`
-  const outro = `Questions to ${m.sender.name}, ${m.sender.email}. Please keep the label on each bit so it can be matched on its return.`
+  // A crib manager added by name only has no address of their own: the shop's reply address stands in.
+  const contact = m.sender.email ?? m.shop.replyEmail
+  const outro = `Questions to ${m.sender.name}${contact ? `, ${contact}` : ''}. Please keep the label on each bit so it can be matched on its return.`
   const note = m.batch.note ? [`Note: ${m.batch.note}`] : []
   const back = `Please send them back to: ${returnTo.join(', ')}.`
   const rows = m.batch.items.map((i) => `<tr><td style="padding:4px 12px 4px 0;font-family:monospace;font-weight:bold">${escapeHtml(i.code)}</td>`

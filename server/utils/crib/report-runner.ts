@@ -20,9 +20,9 @@ async function recipientsOf(tx: Tx, shopId: number, configured: string[] | null)
   if (configured?.length) return configured
   const people = await tx.selectFrom('users').select('email')
     .where('shop_id', '=', shopId).where('active', '=', true).where('role', 'in', ['crib_manager', 'owner'])
-    .where('password_hash', 'is not', null)
+    .where('password_hash', 'is not', null).where('email', 'is not', null)
     .orderBy('email').execute()
-  return people.map((p) => p.email)
+  return people.flatMap((p) => (p.email ? [p.email] : []))
 }
 
 async function sendWithRetry(shopId: number, mail: OutgoingMail, delays = [500, 1500]): Promise<void> {

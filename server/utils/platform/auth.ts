@@ -17,7 +17,8 @@ export interface SessionUser {
   shopId: number
   role: Role
   name: string
-  email: string
+  /** Null for an operator added by name only, who signs in with a PIN on a shop device. */
+  email: string | null
   lengthUnit: 'mm' | 'in'
 }
 
@@ -66,7 +67,8 @@ export async function requireUser(event: H3Event): Promise<SessionUser> {
   const row = await useDb()
     .selectFrom('users as u')
     .leftJoin('user_sessions as s', (j) => j.onRef('s.user_id', '=', 'u.id').on('s.id', '=', session.sid).on('s.expires_at', '>', sql<Date>`now()`))
-    .select(['u.id', 'u.shop_id', 'u.role', 'u.name', 'u.email', 'u.length_unit', 'u.active', 's.id as sid'])
+    .leftJoin('shop_devices as d', (j) => j.onRef('d.id', '=', 's.device_id').on('d.revoked_at', 'is', null))
+    .select(['u.id', 'u.shop_id', 'u.role', 'u.name', 'u.email', 'u.length_unit', 'u.active', 's.id as sid', 's.device_id', 'd.token_hash as device_hash'])
     .where('u.id', '=', session.id)
     .where('u.shop_id', '=', session.shopId)
     .modifyEnd(PREPARED)
@@ -77,6 +79,11 @@ export async function requireUser(event: H3Event): Promise<SessionUser> {
       statusCode: 401,
       statusMessage: row && !row.active ? 'Your account is no longer active. Ask the shop owner.' : 'Your session has ended. Sign in again.',
     })
+  }
+  // A PIN sign-in holds only on the shop device it was made on, and only while that device is enrolled.
+  if (row.device_id !== null && !deviceTokenMatches(event, row.device_hash)) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, statusMessage: 'A PIN sign-in works only on the shop device it was made on. Sign in again.' })
   }
   return { id: row.id, shopId: row.shop_id, role: row.role, name: row.name, email: row.email, lengthUnit: row.length_unit }
 }
@@ -94,15 +101,16 @@ export async function requireRole(event: H3Event, needed: Role): Promise<Session
 
 /**
  * Signs a person in on this browser: a new session row, and the sealed cookie naming it. Every
- * sign-in (password, reset link, invitation, any new way in) goes through here. A session this
- * browser held before ends, and the person's expired rows are cleared away.
+ * sign-in (password, reset link, invitation, PIN on a shop device, any new way in) goes through
+ * here. A session this browser held before ends, and the person's expired rows are cleared away.
+ * A PIN sign-in names its device, whose revocation ends the session.
  */
-export async function startSession(event: H3Event, user: { id: number, shopId: number, name: string, role: Role }) {
+export async function startSession(event: H3Event, user: { id: number, shopId: number, name: string, role: Role }, opts: { deviceId?: number } = {}) {
   const db = useDb()
   const previous = openedOf(await getUserSession(event))
   const maxAge = Number(useRuntimeConfig().session.maxAge) || 60 * 60 * 24 * 14
   const row = await db.insertInto('user_sessions')
-    .values({ user_id: user.id, expires_at: new Date(Date.now() + maxAge * 1000) })
+    .values({ user_id: user.id, expires_at: new Date(Date.now() + maxAge * 1000), device_id: opts.deviceId ?? null })
     .returning('id').executeTakeFirstOrThrow()
   await db.deleteFrom('user_sessions')
     .where('user_id', '=', user.id)

@@ -32,8 +32,8 @@ export async function gettingReady(db: Queryable, shopId: number, role: Role): P
   const done = row as Record<GettingReadyKey, boolean>
   const steps = GETTING_READY_STEPS.map((s) => ({
     ...s,
-    // Only owners invite people: a crib manager sees the step without a link.
-    to: s.key === 'operator' && role !== 'owner' ? null : s.to,
+    // Only owners invite people by e-mail; a crib manager adds operators by name, with a PIN for the shop's devices.
+    to: s.key === 'operator' && role !== 'owner' ? '/crib/devices' : s.to,
     done: Boolean(done[s.key]),
   }))
   return { steps, done: steps.every((s) => s.done) }

@@ -27,12 +27,22 @@ export function clientAddress(event: H3Event): string {
   return forwarded[Math.max(0, forwarded.length - hops)] ?? direct
 }
 
+/** Limits of a kind of sign-in, and how its refusal names what is locked out. */
+export interface ThrottleRules {
+  limits: { windowMinutes: number, perAccount: number, perAddress: number, perAccountEverywhere: number }
+  words: { account: string, address: string, advice: string }
+}
+
+const PASSWORD_WORDS: ThrottleRules['words'] = { account: 'this account', address: 'this network address', advice: 'or reset the password' }
+
 /**
  * Decides whether this sign-in may be tried and, when it may, records it as a failure until
  * proven otherwise. Answers the attempt's id for loginSucceeded, or throws 429 with Retry-After.
+ * `email` and `address` are the two things counted: for a PIN, the operator and the shop device.
  */
-export async function claimLoginAttempt(event: H3Event, email: string, address: string): Promise<string> {
-  const { loginThrottle } = useRuntimeConfig()
+export async function claimLoginAttempt(event: H3Event, email: string, address: string, rules?: ThrottleRules): Promise<string> {
+  const loginThrottle = rules?.limits ?? useRuntimeConfig().loginThrottle
+  const words = rules?.words ?? PASSWORD_WORDS
   const windowMs = Number(loginThrottle.windowMinutes) * 60_000
   const refusal = await transaction(async (tx) => {
     // Always the account first, then the address, so two requests never wait on each other in a ring.
@@ -53,9 +63,9 @@ export async function claimLoginAttempt(event: H3Event, email: string, address: 
     `.execute(tx).then((r) => r.rows[0]!)
     const pair = Number(counts.pair)
     const limits = [
-      { over: pair >= Number(loginThrottle.perAccount), oldest: counts.pair_oldest, what: 'this account' },
-      { over: Number(counts.address) >= Number(loginThrottle.perAddress), oldest: counts.address_oldest, what: 'this network address' },
-      { over: pair > 0 && Number(counts.account) >= Number(loginThrottle.perAccountEverywhere), oldest: counts.account_oldest, what: 'this account' },
+      { over: pair >= Number(loginThrottle.perAccount), oldest: counts.pair_oldest, what: words.account },
+      { over: Number(counts.address) >= Number(loginThrottle.perAddress), oldest: counts.address_oldest, what: words.address },
+      { over: pair > 0 && Number(counts.account) >= Number(loginThrottle.perAccountEverywhere), oldest: counts.account_oldest, what: words.account },
     ]
     const hit = limits.find((l) => l.over)
     if (hit) return hit
@@ -66,7 +76,7 @@ export async function claimLoginAttempt(event: H3Event, email: string, address: 
   setResponseHeader(event, 'Retry-After', retryAfter)
   throw createError({
     statusCode: 429,
-    statusMessage: `Too many failed sign-ins for ${refusal.what}. Wait ${Math.ceil(retryAfter / 60)} minute(s) or reset the password.`,
+    statusMessage: `Too many failed sign-ins for ${refusal.what}. Wait ${Math.ceil(retryAfter / 60)} minute(s) ${words.advice}.`,
     data: { retryAfterSeconds: retryAfter },
   })
 }
