@@ -25,7 +25,10 @@ export async function refreshRegrind(batchId?: number) {
   await refreshNuxtData(['regrind-due', 'regrind-batches', ...(batchId ? [`regrind-batch-${batchId}`] : [])])
 }
 
-/** A day as YYYY-MM-DD (UTC), the same on the server and in the browser. */
-export const dayText = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—')
+/** The shop's day of a moment in the reader's words (useDates), or a dash when there is none. */
+export function useDayText() {
+  const { date } = useDates()
+  return (at: string | null | undefined) => (at ? date(at) : '—')
+}
 
 export const pctText = (fraction: number) => `${Math.round(fraction * 100)} %`

@@ -3,6 +3,10 @@
 import { sql } from 'kysely'
 import { CUTTER_STATUSES, type CutterStatus } from '#shared/kerf/status'
 
+/** The shop's midnight `days` days before its today (the last 30 days are today and the 29 before). */
+const shopDaysAgo = (shopId: number, days: number) => sql<Date>`(select ((now() at time zone s.time_zone)::date - ${days}::int)::timestamp
+  at time zone s.time_zone from shops s where s.id = ${shopId})`
+
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const db = useDb()
@@ -13,7 +17,7 @@ export default defineEventHandler(async (event) => {
     db.selectFrom('cut_logs')
       .select([(eb) => eb.fn.countAll<number>().as('logs'), (eb) => eb.fn.coalesce(eb.fn.sum<number>('minutes'), sql<number>`0`).as('minutes')])
       .where('shop_id', '=', user.shopId).where('voided_at', 'is', null)
-      .where('cut_at', '>=', sql<Date>`now() - interval '30 days'`)
+      .where('cut_at', '>=', shopDaysAgo(user.shopId, 29))
       .executeTakeFirstOrThrow(),
     db.selectFrom('cutter_events as e')
       .innerJoin('cutters as c', (j) => j.onRef('c.id', '=', 'e.cutter_id').onRef('c.shop_id', '=', 'e.shop_id'))

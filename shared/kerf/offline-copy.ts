@@ -81,13 +81,3 @@ export function cutterFromCopy(copy: OfflineCopy, code: string) {
 }
 export type CutterFromCopy = NonNullable<ReturnType<typeof cutterFromCopy>>
 
-/** How old the copy is, in words: "2 minutes", "3 hours", "2 days". */
-export function copyAge(takenAt: string, now: Date): string {
-  const minutes = Math.max(0, Math.floor((now.getTime() - Date.parse(takenAt)) / 60_000))
-  const say = (n: number, unit: string) => `${n} ${unit}${n === 1 ? '' : 's'}`
-  if (minutes < 1) return 'less than a minute'
-  if (minutes < 60) return say(minutes, 'minute')
-  const hours = Math.floor(minutes / 60)
-  if (hours < 48) return say(hours, 'hour')
-  return say(Math.floor(hours / 24), 'day')
-}

@@ -152,7 +152,7 @@ describe('the operator on a phone', { timeout: JOURNEY_TIMEOUT }, () => {
       await phone.setOffline(true)
       // The label is scanned: its address is opened, never visited before, with no connection.
       await page.goto(`/c/${inMachine.code}`)
-      await page.getByText(/No connection: shown from the copy on this phone, (less than a minute|\d+ minutes?) old\./).waitFor()
+      await page.getByText(/No connection: shown from the copy on this phone, taken (this minute|\d+ minutes? ago)\./).waitFor()
       await page.getByRole('heading', { level: 1, name: 'Two-flute upcut 1/4"' }).waitFor()
       await page.getByText('In Big table with changer', { exact: true }).waitFor()
       await shot(page, 'offline-first-visit')

@@ -166,16 +166,17 @@ describe('exports', () => {
     expect(parsed.data.some((r) => r.type?.startsWith('='))).toBe(false)
   })
 
-  it('cut logs between two UTC dates, both included, with the operator and a neutralised note', async () => {
+  it('cut logs between two of the shop\'s days (midnight to midnight in its zone), both included, with the operator and a neutralised note', async () => {
     const materials = (await shop.operator.get('/api/materials')).body as Array<{ id: number, name: string }>
     const db = appDb()
     try {
       const base = { shop_id: shop.id, cutter_id: fx.cutters[1]!.id, machine_id: fx.machines.changer, operator_id: shop.ids.operator, material_id: materials[0]!.id, wear_factor: 1, life_added: 0.01, outcome: 'clean' as const }
       await db.insertInto('cut_logs').values([
         { ...base, minutes: 10, idempotency_key: `csv-${Date.now()}-a`, cut_at: '2026-03-31T23:59:59Z' },
-        { ...base, minutes: 11, idempotency_key: `csv-${Date.now()}-b`, cut_at: '2026-04-01T00:00:00Z', rpm: 18000, feed_mm_per_min: 2500, note: '@SUM(1,2) melted edge' },
-        { ...base, minutes: 12, idempotency_key: `csv-${Date.now()}-c`, cut_at: '2026-04-02T23:59:59Z' },
-        { ...base, minutes: 13, idempotency_key: `csv-${Date.now()}-d`, cut_at: '2026-04-03T00:00:00Z' },
+        { ...base, minutes: 11, idempotency_key: `csv-${Date.now()}-b`, cut_at: '2026-04-01T04:59:59Z' },
+        { ...base, minutes: 12, idempotency_key: `csv-${Date.now()}-c`, cut_at: '2026-04-01T05:00:00Z', rpm: 18000, feed_mm_per_min: 2500, note: '@SUM(1,2) melted edge' },
+        { ...base, minutes: 13, idempotency_key: `csv-${Date.now()}-d`, cut_at: '2026-04-03T04:59:59Z' },
+        { ...base, minutes: 14, idempotency_key: `csv-${Date.now()}-e`, cut_at: '2026-04-03T05:00:00Z' },
       ]).execute()
     } finally {
       await db.destroy()
@@ -185,10 +186,11 @@ describe('exports', () => {
     expect(res.status).toBe(200)
     expect(res.headers.get('content-disposition')).toBe('attachment; filename="cut-logs-2026-04-01-to-2026-04-02.csv"')
     const parsed = Papa.parse<Record<string, string>>(res.body, { header: true, skipEmptyLines: true })
-    expect(parsed.data.map((r) => r.minutes)).toEqual(['11', '12'])
-    // The shop's zone here is America/Chicago, CDT (UTC-5) on 1 April 2026 (IANA tz database).
+    // The shop's zone here is America/Chicago, CDT (UTC-5) in April 2026 (IANA tz database): its
+    // 1 April runs from 05:00 UTC that day to 05:00 UTC on the 2nd.
+    expect(parsed.data.map((r) => r.minutes)).toEqual(['12', '13'])
     expect(parsed.data[0]).toMatchObject({
-      date: '2026-03-31', time: '19:00', time_zone: 'America/Chicago', cutter_code: fx.cutters[1]!.code, type: 'Two-flute upcut 1/4"', machine: 'Big table with changer',
+      date: '2026-04-01', time: '00:00', time_zone: 'America/Chicago', cutter_code: fx.cutters[1]!.code, type: 'Two-flute upcut 1/4"', machine: 'Big table with changer',
       operator: 'Test Operator', material: materials[0]!.name, outcome: 'Clean', rpm: '18000', feed_mm_per_min: '2500', note: '\'@SUM(1,2) melted edge',
     })
     const elsewhere = await other.crib.get('/api/export/cut-logs.csv?from=2026-04-01&to=2026-04-02')

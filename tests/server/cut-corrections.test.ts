@@ -47,12 +47,12 @@ async function rollUps(shopId: number) {
         clean, melted, chip_out, fuzzy, broken
       from cut_log_daily where shop_id = ${shopId} order by 1, 2, 3, 4, 5`.execute(db)
     const dailyRecount = await sql<Record<string, unknown>>`
-      select (l.cut_at at time zone 'UTC')::date::text as day, l.material_id, l.machine_id, l.operator_id, c.type_id, count(*)::int as logs,
+      select (l.cut_at at time zone s.time_zone)::date::text as day, l.material_id, l.machine_id, l.operator_id, c.type_id, count(*)::int as logs,
         sum(l.minutes)::float8 as minutes, round(sum(l.minutes * l.wear_factor / t.rated_life_minutes), 4)::float8 as new_lives,
         count(*) filter (where outcome = 'clean')::int as clean, count(*) filter (where outcome = 'melted')::int as melted,
         count(*) filter (where outcome = 'chip_out')::int as chip_out, count(*) filter (where outcome = 'fuzzy')::int as fuzzy,
         count(*) filter (where outcome = 'broken')::int as broken
-      from cut_logs l join cutters c on c.id = l.cutter_id join cutter_types t on t.id = c.type_id
+      from cut_logs l join shops s on s.id = l.shop_id join cutters c on c.id = l.cutter_id join cutter_types t on t.id = c.type_id
       where l.shop_id = ${shopId} and l.voided_at is null
       group by 1, 2, 3, 4, 5 order by 1, 2, 3, 4, 5`.execute(db)
     const lives = await sql<Record<string, unknown>>`

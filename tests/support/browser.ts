@@ -35,9 +35,12 @@ export interface Journey {
   close: () => Promise<void>
 }
 
-export async function startJourney(name: string, device: typeof PHONE | typeof DESKTOP): Promise<Journey> {
+/** The browser's language and clock: British English on UTC unless a journey says otherwise. */
+export interface Reader { locale: string, timezoneId: string }
+
+export async function startJourney(name: string, device: typeof PHONE | typeof DESKTOP, reader: Reader = { locale: 'en-GB', timezoneId: 'UTC' }): Promise<Journey> {
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: ARGS })
-  const context = await browser.newContext({ ...device, baseURL: baseUrl(), locale: 'en-GB', timezoneId: 'UTC' })
+  const context = await browser.newContext({ ...device, baseURL: baseUrl(), ...reader })
   // Generous: the suite shares two cores with the other server tests.
   context.setDefaultTimeout(20_000)
   const page = await context.newPage()

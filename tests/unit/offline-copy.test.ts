@@ -2,7 +2,7 @@
 // damage accumulation (Miner's rule: remaining = (1 - D) x rated life x life scale / wear factor,
 // as in any fatigue handbook), the due notice, and an age said in words.
 import { describe, expect, it } from 'vitest'
-import { copyAge, cutterFromCopy, type OfflineCopy } from '../../shared/kerf/offline-copy'
+import { cutterFromCopy, type OfflineCopy } from '../../shared/kerf/offline-copy'
 
 const copy: OfflineCopy = {
   takenAt: '2026-12-03T08:00:00.000Z',
@@ -44,14 +44,5 @@ describe('a cutter from the copy', () => {
   it('is found by a code typed in lower case, and a code not in the copy finds nothing', () => {
     expect(cutterFromCopy(copy, 'k7q2m9p')?.id).toBe(1)
     expect(cutterFromCopy(copy, 'ZZZ9999')).toBeNull()
-  })
-
-  it('says how old the copy is in words', () => {
-    const at = (iso: string) => copyAge(copy.takenAt, new Date(iso))
-    expect(at('2026-12-03T08:00:30Z')).toBe('less than a minute')
-    expect(at('2026-12-03T08:01:00Z')).toBe('1 minute')
-    expect(at('2026-12-03T08:59:00Z')).toBe('59 minutes')
-    expect(at('2026-12-03T10:00:00Z')).toBe('2 hours')
-    expect(at('2026-12-06T08:00:00Z')).toBe('3 days')
   })
 })

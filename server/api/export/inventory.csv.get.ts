@@ -1,6 +1,7 @@
 // Every cutter of the shop as CSV: label code, type, status, machine, diameter, regrinds, life
 // used and minutes cut; statuses in words.
 import { STATUS_LABELS } from '#shared/kerf/status'
+import { shopDay } from '#shared/kerf/dates'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'crib_manager')
@@ -11,7 +12,7 @@ export default defineEventHandler(async (event) => {
     .where('c.shop_id', '=', user.shopId)
     .orderBy('t.name').orderBy('c.code')
     .execute()
-  const day = new Date().toISOString().slice(0, 10)
+  const day = shopDay(new Date(), await shopTimeZone(useDb(), user.shopId))
   return sendCsv(event, `inventory-${day}.csv`,
     ['code', 'type', 'status', 'machine', 'diameter_mm', 'regrind_count', 'life_used_percent', 'minutes_total'],
     rows.map((r) => [r.code, r.type, STATUS_LABELS[r.status], r.machine ?? '', r.diameter_mm, r.regrind_count, Math.round(r.life_used * 1000) / 10, r.minutes_total]))

@@ -2,7 +2,7 @@
 // number and date, its lines and total, where to deliver and the note. The same file is
 // attached to the order e-mail and downloaded from the order page.
 import PDFDocument from 'pdfkit'
-import { format } from 'date-fns'
+import { FALLBACK_LOCALE, showDate } from '#shared/kerf/dates'
 import { showMoney } from '#shared/kerf/money'
 import type { OrderView } from './orders'
 
@@ -10,6 +10,8 @@ export interface OrderPdfShop {
   name: string
   /** The postal address, one line each, when the shop has given one. */
   addressLines?: readonly string[]
+  /** The shop's IANA time zone: the order's date is the shop's day. */
+  timeZone: string
 }
 
 // The standard PDF fonts only carry the Western European characters; anything else would
@@ -39,7 +41,7 @@ export function orderPdf(order: OrderView, shop: OrderPdfShop): Promise<Buffer> 
   doc.font('Helvetica-Bold').fontSize(16).fillColor(INK).text('Purchase order', left + width * 0.6, 54, { width: width * 0.4, align: 'right' })
   doc.font('Helvetica').fontSize(11)
     .text(`Number: ${order.number}`, { width: width * 0.4, align: 'right' })
-    .text(`Date: ${format(new Date(date), 'd MMM yyyy')}`, { width: width * 0.4, align: 'right' })
+    .text(`Date: ${showDate(date, { locale: FALLBACK_LOCALE, timeZone: shop.timeZone })}`, { width: width * 0.4, align: 'right' })
 
   // Supplier and delivery address side by side.
   let y = Math.max(doc.y, 130) + 16

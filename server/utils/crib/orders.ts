@@ -51,12 +51,12 @@ export async function orderLetterhead(db: Queryable, shopId: number) {
 }
 
 /** What a supplier's e-mail says about the shop sending it. */
-export interface ShopLetterhead { name: string, address: string, phone: string | null, replyEmail: string | null, currency: Currency }
+export interface ShopLetterhead { name: string, address: string, phone: string | null, replyEmail: string | null, currency: Currency, timeZone: string }
 
 export async function shopLetterhead(db: Queryable, shopId: number): Promise<ShopLetterhead> {
-  const s = await db.selectFrom('shops').select(['name', 'address', 'phone', 'reply_email', 'currency'])
+  const s = await db.selectFrom('shops').select(['name', 'address', 'phone', 'reply_email', 'currency', 'time_zone'])
     .where('id', '=', shopId).executeTakeFirstOrThrow()
-  return { name: s.name, address: s.address, phone: s.phone, replyEmail: s.reply_email, currency: s.currency }
+  return { name: s.name, address: s.address, phone: s.phone, replyEmail: s.reply_email, currency: s.currency, timeZone: s.time_zone }
 }
 
 /** The shop's address block: its name, the address lines and the phone. */

@@ -4,7 +4,9 @@
 import { sql, type SqlBool } from 'kysely'
 import { reorderFigures } from '#shared/kerf/reorder'
 import { reorderFormulas, reorderSentence } from '#shared/kerf/reorder-words'
+import { shopDayNumber } from '#shared/kerf/dates'
 import type { Queryable } from '../../db/connect'
+import { shopTimeZone } from '../platform/shop-settings'
 
 export const DEMAND_WINDOW_DAYS = 90
 const DEFAULT_LEAD_TIME_DAYS = 7
@@ -12,9 +14,10 @@ const DAY_MS = 86_400_000
 
 export async function reorderRows(db: Queryable, shopId: number, now = new Date()) {
   const windowStart = new Date(now.getTime() - DEMAND_WINDOW_DAYS * 86_400_000)
-  // The window's UTC days, as days since 1970-01-01: the 90 days that end today.
-  const firstDay = Math.floor(windowStart.getTime() / 86_400_000) + 1
-  const lastDay = Math.floor(now.getTime() / 86_400_000)
+  // The window's days as the shop counts them (cut_log_daily's days), as days since
+  // 1970-01-01: the 90 days that end on the shop's today.
+  const lastDay = shopDayNumber(now, await shopTimeZone(db, shopId))
+  const firstDay = lastDay - DEMAND_WINDOW_DAYS + 1
   const [shop, types, usage, stock, orders, atRegrind, machines] = await Promise.all([
     db.selectFrom('shops').select(['regrind_life_fraction', 'order_cost_cents', 'holding_rate', 'review_interval_days'])
       .where('id', '=', shopId).executeTakeFirstOrThrow(),
@@ -25,7 +28,7 @@ export async function reorderRows(db: Queryable, shopId: number, now = new Date(
         't.min_on_hand', 't.max_on_hand', 't.spares_per_machine', 't.do_not_reorder'])
       .where('t.shop_id', '=', shopId).where('t.active', '=', true)
       .orderBy('t.name').execute(),
-    // New-cutter lives used per type and UTC day, from the daily roll-up (its trigger adds each
+    // New-cutter lives used per type and shop day, from the daily roll-up (its trigger adds each
     // log's minutes × wear factor / rated life as the log is written), never the raw logs.
     db.selectFrom('cut_log_daily')
       .select(['type_id', sql<number>`day - date '1970-01-01'`.as('day'), sql<number>`sum(new_lives)`.as('lives')])

@@ -2,6 +2,7 @@
 // retire, and the batches overdue at the regrinder, built from the same code as the crib's
 // reorder and resharpening pages.
 import { showMoney } from '#shared/kerf/money'
+import { FALLBACK_LOCALE, showDay } from '#shared/kerf/dates'
 import type { Queryable } from '../../db/connect'
 import type { OutgoingMail } from '../platform/mail'
 
@@ -26,6 +27,8 @@ export async function buildToolingReport(db: Queryable, shopId: number, opts: { 
   const retire = due.cutters.filter((c) => c.action === 'retire')
   const counts = { order: order.length, resharpen: resharpen.length, retire: retire.length, overdue: overdue.length }
   const isEmpty = !order.length && !resharpen.length && !retire.length && !overdue.length
+  // The shop's own day, worded: "3 Dec 2026".
+  const day = showDay(opts.localDate, FALLBACK_LOCALE)
   const lateWords = (b: (typeof overdue)[number]) => `${b.counts.out} of ${b.counts.items} still out, sent ${b.age!.ageDays} days ago to ${b.supplier?.name ?? 'the regrinder'}, `
     + `${b.age!.daysOverdue ? `${b.age!.daysOverdue} days` : 'just'} past the ${b.age!.turnaroundDays}-day turnaround`
   const base = opts.baseUrl
@@ -33,10 +36,10 @@ export async function buildToolingReport(db: Queryable, shopId: number, opts: { 
   const why = (c: { reason: string, lifeUsed: number }) => (c.reason === 'flagged_dull' ? 'flagged dull' : `${pct(c.lifeUsed)} of life used`)
 
   const subject = isEmpty
-    ? `Tooling report ${opts.localDate}: all clear`
-    : `Tooling report ${opts.localDate}: order ${counts.order}, resharpen ${counts.resharpen}, retire ${counts.retire}${overdue.length ? `, ${overdue.length} overdue at the regrinder` : ''}`
+    ? `Tooling report ${day}: all clear`
+    : `Tooling report ${day}: order ${counts.order}, resharpen ${counts.resharpen}, retire ${counts.retire}${overdue.length ? `, ${overdue.length} overdue at the regrinder` : ''}`
 
-  const text: string[] = [`${shop.name}: tooling report for ${opts.localDate}`, '']
+  const text: string[] = [`${shop.name}: tooling report for ${day}`, '']
   if (isEmpty) text.push('Nothing to order, resharpen or retire today.', '')
   if (order.length) {
     text.push(`ORDER (${order.length}) - ${base}/crib/reorder`)
@@ -73,7 +76,7 @@ ${rows.map((r) => `<tr>${r.map((cell) => `<td style="${td}">${cell}</td>`).join(
   const html = `<!doctype html><html><body style="margin:0;background:#f6f4ee;font-family:Arial,sans-serif;color:#15191c">
 <div style="max-width:640px;margin:0 auto;padding:20px">
 <div style="font-weight:bold;font-size:20px;color:#135244">Kerfbook</div>
-<h1 style="font-size:22px;margin:8px 0 4px">Tooling report, ${escapeHtml(opts.localDate)}</h1>
+<h1 style="font-size:22px;margin:8px 0 4px">Tooling report, ${escapeHtml(day)}</h1>
 <p style="margin:0 0 8px;color:#3b4349">${escapeHtml(shop.name)}</p>
 ${isEmpty ? '<p style="font-size:17px">Nothing to order, resharpen or retire today.</p>' : ''}
 ${section(`Order (${order.length})`, `${base}/crib/reorder`, ['Cutter type', 'Supplier', 'Order', 'Why'], order.map((r) => [

@@ -48,14 +48,14 @@ export async function costByGroup(db: Queryable, shopId: number, range: DateRang
   return costRows(slices, prices)
 }
 
-/** Tooling spend by UTC month: cutters received (at their order line's price, else the catalogue's) and regrinds received back. */
+/** Tooling spend by the shop's month: cutters received (at their order line's price, else the catalogue's) and regrinds received back. */
 export async function spendByMonth(db: Queryable, shopId: number, range: DateRange) {
   const [bought, reground] = await Promise.all([
     db.selectFrom('cutters as c')
       .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
       .leftJoin('purchase_order_lines as pl', (j) => j.onRef('pl.id', '=', 'c.order_line_id').onRef('pl.shop_id', '=', 'c.shop_id'))
       .select([
-        sql<string>`to_char(c.received_at at time zone 'UTC', 'YYYY-MM')`.as('month'),
+        sql<string>`to_char(c.received_at at time zone ${range.timeZone}, 'YYYY-MM')`.as('month'),
         sql<number>`sum(coalesce(pl.unit_cost_cents, t.unit_cost_cents))`.as('cents'),
         sql<number>`count(*)`.as('count'),
       ])
@@ -64,7 +64,7 @@ export async function spendByMonth(db: Queryable, shopId: number, range: DateRan
     db.selectFrom('regrind_batch_items as i')
       .innerJoin('regrind_batches as b', (j) => j.onRef('b.id', '=', 'i.batch_id').onRef('b.shop_id', '=', 'i.shop_id'))
       .select([
-        sql<string>`to_char(b.received_at at time zone 'UTC', 'YYYY-MM')`.as('month'),
+        sql<string>`to_char(b.received_at at time zone ${range.timeZone}, 'YYYY-MM')`.as('month'),
         sql<number>`sum(i.cost_cents)`.as('cents'),
         sql<number>`count(*) filter (where i.result = 'reground')`.as('count'),
       ])

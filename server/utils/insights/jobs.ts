@@ -6,7 +6,7 @@ import { jobCostRows } from '#shared/kerf/nc/job-cost'
 import type { Queryable } from '../../db/connect'
 
 export async function costByJob(db: Queryable, shopId: number, range: DateRange) {
-  const inRange = sql<boolean>`(r.created_at at time zone 'UTC')::date between ${range.from}::date and ${range.to}::date`
+  const inRange = sql<boolean>`r.created_at >= ${range.start} and r.created_at < ${range.end}`
   const [usage, runs, shop, types] = await Promise.all([
     db.selectFrom('nc_runs as r')
       .innerJoin('nc_run_logs as rl', (j) => j.onRef('rl.run_id', '=', 'r.id').onRef('rl.shop_id', '=', 'r.shop_id'))

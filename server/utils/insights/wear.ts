@@ -9,6 +9,7 @@ import type { AdoptWearBody } from '#shared/schemas/insights'
 import type { z } from 'zod'
 import type { Db, Queryable } from '../../db/connect'
 import { notFound, type SessionUser } from '../platform/auth'
+import { shopTimeZone } from '../platform/shop-settings'
 
 export async function learnedWear(db: Queryable, shopId: number, range: DateRange) {
   const [materials, types, rows] = await Promise.all([
@@ -57,7 +58,7 @@ const CEILING = 100
  * the factor they were written with; each change is recorded with who and when.
  */
 export async function adoptWearFactors(db: Db, user: SessionUser, body: z.output<typeof AdoptWearBody>) {
-  const range = resolveRange(body)
+  const range = resolveRange(body, await shopTimeZone(db, user.shopId))
   const adopted = await db.transaction().execute(async (tx) => {
     // Lock the shop's materials so two adoptions cannot cross.
     await tx.selectFrom('materials').select('id').where('shop_id', '=', user.shopId).forUpdate().execute()

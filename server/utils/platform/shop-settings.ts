@@ -23,3 +23,9 @@ export async function shopSettings(db: Queryable, shopId: number) {
   }
 }
 export type ShopSettings = Awaited<ReturnType<typeof shopSettings>>
+
+/** The shop's IANA time zone: its days (insights, reports, exports) run from its local midnight. */
+export async function shopTimeZone(db: Queryable, shopId: number): Promise<string> {
+  const s = await db.selectFrom('shops').select('time_zone').where('id', '=', shopId).executeTakeFirstOrThrow()
+  return s.time_zone
+}

@@ -7,6 +7,7 @@
 // twice) and a second void write nothing.
 import { lifeAdded, roundLife } from '#shared/kerf/life'
 import { OUTCOME_LABELS } from '#shared/kerf/history-words'
+import { shopDay } from '#shared/kerf/dates'
 import type { CutOutcome } from '#shared/kerf/spindle'
 import { sql } from 'kysely'
 import type { SessionUser } from '../platform/auth'
@@ -26,7 +27,8 @@ export async function changeCutLog(user: SessionUser, logId: number, change: Cut
     const cutter = await lockCutter(tx, user.shopId, found.cutter_id)
     const log = await tx.selectFrom('cut_logs as l')
       .innerJoin('materials as m', (j) => j.onRef('m.id', '=', 'l.material_id').onRef('m.shop_id', '=', 'l.shop_id'))
-      .select(['l.id', 'l.operator_id', 'l.created_at', 'l.cut_at', 'l.minutes', 'l.material_id', 'l.wear_factor', 'l.life_added',
+      .innerJoin('shops as s', 's.id', 'l.shop_id')
+      .select(['s.time_zone', 'l.id', 'l.operator_id', 'l.created_at', 'l.cut_at', 'l.minutes', 'l.material_id', 'l.wear_factor', 'l.life_added',
         'l.regrind_count', 'l.outcome', 'l.note', 'l.voided_at', 'm.name as material_name'])
       .where('l.shop_id', '=', user.shopId).where('l.id', '=', String(logId))
       .forUpdate('l').executeTakeFirstOrThrow()
@@ -91,7 +93,7 @@ export async function changeCutLog(user: SessionUser, logId: number, change: Cut
       shop_id: user.shopId, cut_log_id: log.id, cutter_id: cutter.id, kind: voiding ? 'voided' : 'corrected', actor_id: user.id, reason,
       before: JSON.stringify(before), after: JSON.stringify(voiding ? {} : after),
     }).execute()
-    const what = `the cut of ${log.minutes} min in ${log.material_name} on ${log.cut_at.toISOString().slice(0, 10)}`
+    const what = `the cut of ${log.minutes} min in ${log.material_name} on ${shopDay(log.cut_at, log.time_zone)}`
     const changes = voiding ? [] : describeChanges(before, after)
     const life = sameLife ? '' : ` (a sharp life before regrind ${cutter.regrind_count}: only that life's figures change)`
     await recordEvent(tx, {
