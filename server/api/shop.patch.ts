@@ -4,6 +4,7 @@ import { ShopUpdateBody } from '#shared/schemas/shop'
 export default defineEventHandler(async (event) => {
   const owner = await requireRole(event, 'owner')
   const b = await readValidatedBody(event, parseWith(ShopUpdateBody))
+  if (b.timeZone !== undefined) await assertKnownTimeZone(useDb(), b.timeZone)
   const set = {
     ...(b.name !== undefined && { name: b.name }),
     ...(b.timeZone !== undefined && { time_zone: b.timeZone }),

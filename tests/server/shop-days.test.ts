@@ -98,6 +98,16 @@ describe("the insights' days are the shop's days", () => {
     expect(await logsOn('2026-06-30')).toBe(0)
   })
 
+  it('refuses a zone the browser knows but the database does not, naming the field, and keeps the days as they were', async () => {
+    // "US/Pacific-New" was a link in old tz data: ICU (and so the form's own check) still accepts
+    // it, PostgreSQL's tz data no longer has it. Every cut's day is worked out in PostgreSQL.
+    expect(() => new Intl.DateTimeFormat('en', { timeZone: 'US/Pacific-New' })).not.toThrow()
+    const res = await shop.owner.patch('/api/shop', { timeZone: 'US/Pacific-New' })
+    expect(res.status).toBe(400)
+    expect(res.body.data.fields.timeZone).toMatch(/not a time zone this server knows/)
+    expect((await shop.owner.get('/api/shop')).body.timeZone).toBe('Asia/Tokyo')
+  })
+
   it('a cut logged after the change is counted in the new zone, and a void takes it out of that day', async () => {
     const materials = (await shop.operator.get('/api/materials')).body as Array<{ id: number }>
     const db = appDb()
