@@ -43,7 +43,7 @@ const MAX_LIVES = 9999
  */
 async function readForLog(db: Db, shopId: number, id: number, body: CutLogInput) {
   const row = await cutterViewQuery(db, shopId)
-    .leftJoin('materials as mat', (j) => j.onRef('mat.shop_id', '=', 'c.shop_id').on('mat.id', '=', body.materialId).on('mat.active', '=', true))
+    .leftJoin('materials as mat', (j) => j.onRef('mat.shop_id', '=', 'c.shop_id').on('mat.id', '=', body.materialId).on('mat.active', '=', sql.lit(true)))
     .leftJoin('cut_logs as e', (j) => j.onRef('e.shop_id', '=', 'c.shop_id').on('e.idempotency_key', '=', body.idempotencyKey))
     .select(['mat.id as material_id', 'mat.name as material_name', 'mat.wear_factor', 'e.id as earlier_id'])
     .$if(body.machineId != null, (q) => q.select((eb) => eb.selectFrom('machines as mc').select('mc.name')
