@@ -11,11 +11,18 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, parseWith(UserUpdateBody))
   return transaction(async (tx) => {
     // Lock the shop's owners so two owners demoting each other at once cannot leave none. Only
-    // owners who can sign in count: one invited but never joined has no password yet.
-    const owners = await tx.selectFrom('users').select('id')
-      .where('shop_id', '=', owner.shopId).where('role', '=', 'owner').where('active', '=', true)
-      .where('password_hash', 'is not', null)
-      .forUpdate().execute()
+    // owners who can sign in count: one invited but never joined has no password yet. The person
+    // changed is locked in the same statement, all in id order, so that requests locking either
+    // take them in one order; FOR NO KEY UPDATE leaves the owners' other work (rows that refer to
+    // them) free to go on meanwhile.
+    const locked = await tx.selectFrom('users').select(['id', 'role', 'active', 'password_hash'])
+      .where('shop_id', '=', owner.shopId)
+      .where((eb) => eb.or([
+        eb('id', '=', id),
+        eb.and([eb('role', '=', 'owner'), eb('active', '=', true), eb('password_hash', 'is not', null)]),
+      ]))
+      .orderBy('id').forNoKeyUpdate().execute()
+    const owners = locked.filter((u) => u.role === 'owner' && u.active && u.password_hash !== null)
     const target = await tx.selectFrom('users').select(['id', 'name', 'role', 'active', 'email', 'password_hash'])
       .where('id', '=', id).where('shop_id', '=', owner.shopId).executeTakeFirst()
     if (!target) notFound('person')
