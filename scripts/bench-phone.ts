@@ -172,7 +172,7 @@ async function untilATapWorks(page: Page, since: number, painted: Promise<number
   const form = page.locator('#cut-form-heading')
   const seenMs = await painted - since
   const firstTap = Date.now()
-  await button.tap({ timeout: 5_000, noWaitAfter: true })
+  await button.tap({ timeout: 30_000, noWaitAfter: true })
   // Taken? The form opens, or the button shows it is busy with the tap (a page that keeps early taps).
   const taken = await form.isVisible() || await button.getAttribute('aria-busy').then((v) => v === 'true', () => false)
   if (taken) {
