@@ -1,6 +1,7 @@
 // Kerfbook: the Nuxt application. Client folders sit at the project root (srcDir '.').
 import type { Rollup } from 'vite'
 import { EARLY_TAP_SCRIPT } from './utils/early-tap'
+import { LEAVE_QUICKLY_SCRIPT } from './utils/leave-quickly'
 
 /** A new one each build, so that phones fetch the app shell again with the new code. */
 const SHELL_REVISION = Date.now().toString(36)
@@ -72,8 +73,9 @@ export default defineNuxtConfig({
         { rel: 'apple-touch-icon', href: '/icons/apple-touch-icon-180.png' },
         { rel: 'manifest', href: '/manifest.webmanifest' },
       ],
-      // Keeps a tap on the cutter page's buttons made before the page is interactive (utils/early-tap.ts).
-      script: [{ innerHTML: EARLY_TAP_SCRIPT, tagPosition: 'head' }],
+      // Keeps a tap on the cutter page's buttons made before the page is interactive (utils/early-tap.ts);
+      // lets the next page start without waiting for vue-router to save the scroll position (utils/leave-quickly.ts).
+      script: [{ innerHTML: EARLY_TAP_SCRIPT, tagPosition: 'head' }, { innerHTML: LEAVE_QUICKLY_SCRIPT, tagPosition: 'head' }],
     },
   },
   runtimeConfig: {

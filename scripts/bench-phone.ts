@@ -240,7 +240,11 @@ async function measure(browser: Browser, codes: [string, string], cookie: string
   }
 
   // A repeat scan: the next label, in the same browser, with its cache and any service worker warm.
-  if (TRACE) await browser.startTracing(page, { path: TRACE, screenshots: true })
+  if (TRACE) await browser.startTracing(page, {
+    path: TRACE, screenshots: true,
+    // Without V8's sampling profiler, which stalls the page when it starts and would be measured too.
+    categories: ['toplevel', 'devtools.timeline', 'disabled-by-default-devtools.timeline', 'blink.user_timing', 'loading', 'navigation'],
+  })
   const repeatPaint = nextPaint()
   const again = Date.now()
   await page.goto(`${BASE}/c/${codes[1]}`, { waitUntil: 'commit' })
