@@ -3,6 +3,8 @@
 import type { InternalApi } from 'nitropack/types'
 
 export type CutterView = InternalApi['/api/cutters/by-code/:code']['get']
+/** What a logged cut's answer carries: the cutter's state and the log, for `withLoggedCut`. */
+export type CutterAfterCut = InternalApi['/api/cutters/:id/cuts']['post']['cutter']
 export type RemainingInMaterial = CutterView['remainingMinutes'][number]
 export type RecentCut = CutterView['recentCuts'][number]
 export type MachineChoice = InternalApi['/api/machines']['get'][number]

@@ -18,21 +18,22 @@ export default defineNitroPlugin((nitroApp) => {
     const status = getResponseStatus(event)
     if (status === 204 || status === 304 || event.method === 'HEAD') return
 
-    let text: string
-    let type = getResponseHeader(event, 'content-type') as string | undefined
-    if (typeof body === 'string') {
-      text = body
-      type ??= 'text/html; charset=utf-8'
-    } else if (isPlainData(body)) {
-      text = JSON.stringify(body)
-      type ??= 'application/json'
-    } else {
-      return // streams, buffers (images), web responses: left as they are
-    }
+    const isText = typeof body === 'string'
+    if (!isText && !isPlainData(body)) return // streams, buffers (images), web responses: left as they are
+    const type = (getResponseHeader(event, 'content-type') as string | undefined) ?? (isText ? 'text/html; charset=utf-8' : 'application/json')
     if (!isCompressibleType(type)) return
     appendResponseHeader(event, 'vary', 'Accept-Encoding')
     const encoding = chooseEncoding(getRequestHeader(event, 'accept-encoding'))
-    if (!encoding || Buffer.byteLength(text) < COMPRESS_FROM_BYTES) return
+    if (!encoding) return
+    const text = isText ? body : JSON.stringify(body)
+    if (Buffer.byteLength(text) < COMPRESS_FROM_BYTES) {
+      // Sent as it is; the JSON already written is kept, so the answer is not serialised twice.
+      if (!isText) {
+        setResponseHeader(event, 'content-type', type)
+        response.body = text
+      }
+      return
+    }
 
     const compressed = encoding === 'br'
       // Quality 5: most of brotli's gain at a small fraction of its top quality's CPU.

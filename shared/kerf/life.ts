@@ -23,6 +23,22 @@ export function remainingMinutes(used: number, ratedLifeMinutes: number, wearFac
   return (Math.max(0, 1 - used) * ratedLifeMinutes * lifeScale) / wearFactor
 }
 
+/** A material as the remaining minutes are worked out for it. */
+export interface MaterialForRemaining { id: number, name: string, common: boolean, wearFactor: number }
+
+/**
+ * Minutes left in each material, rounded to a tenth of a minute: what every cutter view shows
+ * (the server's, the phone's copy, and the phone's view updated by a cut's answer), worked out here
+ * once. Each entry keeps its material's wear factor, so the figures can be worked out again when
+ * the life used changes.
+ */
+export function remainingInMaterials(materials: readonly MaterialForRemaining[], used: number, ratedLifeMinutes: number, lifeScale = 1) {
+  return materials.map((m) => ({
+    materialId: m.id, materialName: m.name, common: m.common, wearFactor: m.wearFactor,
+    minutes: Math.round(remainingMinutes(used, ratedLifeMinutes, m.wearFactor, lifeScale) * 10) / 10,
+  }))
+}
+
 /** Rounds a life fraction the way the database stores it (numeric(10,6)). */
 export function roundLife(value: number): number {
   return Math.round(value * 1e6) / 1e6

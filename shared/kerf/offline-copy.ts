@@ -3,7 +3,7 @@
 // with the same functions (remaining minutes, due notice), minus what the copy does not hold
 // (recent cuts). Pure: no framework imports.
 import { dueAction, dueReason } from './due'
-import { remainingMinutes } from './life'
+import { remainingInMaterials } from './life'
 import type { Helix, Profile, ToolMaterial } from './geometry'
 import type { Role } from './roles'
 import type { CutterStatus } from './status'
@@ -71,11 +71,7 @@ export function cutterFromCopy(copy: OfflineCopy, code: string) {
       shankDiameterMm: type.shankDiameterMm, helix: type.helix, profile: type.profile, vAngleDeg: type.vAngleDeg,
       toolMaterial: type.toolMaterial, maxRegrinds: type.maxRegrinds,
     },
-    // Rounded to a tenth of a minute as the server's view rounds it.
-    remainingMinutes: copy.materials.map((m) => ({
-      materialId: m.id, materialName: m.name, common: m.common,
-      minutes: Math.round(remainingMinutes(lifeUsed, type.ratedLifeMinutes, m.wearFactor, lifeScale) * 10) / 10,
-    })),
+    remainingMinutes: remainingInMaterials(copy.materials, lifeUsed, type.ratedLifeMinutes, lifeScale),
     recentCuts: [] as never[],
   }
 }

@@ -20,8 +20,42 @@ export interface SharpLife {
   ratedLifeMinutes: number
   /** Ended by wear (dull, reground, retired worn or undersize); otherwise censored. */
   wornOut: boolean
-  /** The minutes cut in each material: a list of cuts, or minutes by material id (as a roll-up keeps them). */
-  cuts: readonly LifeCut[] | Readonly<Record<string, number>>
+  /** The minutes cut in each material. */
+  cuts: readonly LifeCut[]
+}
+
+/**
+ * Lives laid out in columns, as the server reads them from its roll-up (no object a life): life i
+ * is `typeId[i]`, `ratedLifeMinutes[i]`, `wornOut[i]` (1 or 0), and cut `minutes[q]` in material
+ * `materialId[q]` for q from `start[i]` up to `start[i + 1]`.
+ */
+export interface LifeColumns {
+  typeId: Int32Array
+  ratedLifeMinutes: Float64Array
+  wornOut: Uint8Array
+  /** One more entry than lives: where each life's cuts begin, then where the last one's end. */
+  start: Int32Array
+  materialId: Int32Array
+  minutes: Float64Array
+}
+
+/** A list of lives laid out in columns. */
+export function lifeColumns(lives: readonly SharpLife[]): LifeColumns {
+  let cuts = 0
+  for (const life of lives) cuts += life.cuts.length
+  const out: LifeColumns = {
+    typeId: new Int32Array(lives.length), ratedLifeMinutes: new Float64Array(lives.length), wornOut: new Uint8Array(lives.length),
+    start: new Int32Array(lives.length + 1), materialId: new Int32Array(cuts), minutes: new Float64Array(cuts),
+  }
+  let q = 0
+  lives.forEach((life, i) => {
+    out.typeId[i] = life.typeId
+    out.ratedLifeMinutes[i] = life.ratedLifeMinutes
+    out.wornOut[i] = life.wornOut ? 1 : 0
+    for (const cut of life.cuts) { out.materialId[q] = cut.materialId; out.minutes[q++] = cut.minutes }
+    out.start[i + 1] = q
+  })
+  return out
 }
 
 export interface StartingFactor { materialId: number, startingFactor: number }
@@ -105,16 +139,11 @@ export function referenceMaterial(materials: readonly StartingFactor[]): number 
   return best?.materialId ?? null
 }
 
-/** The lives laid out flat for the hot loop: one row a life, its materials as column indexes. */
-interface Flat {
-  start: Int32Array
-  col: Int32Array
-  value: Float64Array
-  type: Int32Array
-  failed: Uint8Array
+function isColumns(lives: readonly SharpLife[] | LifeColumns): lives is LifeColumns {
+  return !Array.isArray(lives)
 }
 
-export function fitWearModel(lives: readonly SharpLife[], materials: readonly StartingFactor[], options: WearModelOptions = {}): WearModel {
+export function fitWearModel(lives: readonly SharpLife[] | LifeColumns, materials: readonly StartingFactor[], options: WearModelOptions = {}): WearModel {
   const k = options.priorLives ?? DEFAULT_PRIOR_LIVES
   const sigma0 = options.priorScatter ?? DEFAULT_PRIOR_SCATTER
   for (const m of materials) if (!(m.startingFactor > 0)) throw new RangeError('starting factors must be positive')
@@ -122,108 +151,103 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
   const refId = options.referenceMaterialId ?? referenceMaterial(materials)
   const ref = refId === null ? -1 : (column.get(refId) ?? -1)
   const nm = materials.length
+  const data = isColumns(lives) ? lives : lifeColumns(lives)
+  const logStart = materials.map((m) => Math.log(m.startingFactor))
 
-  // Counts, and the lives that carry information (a life with no minutes says nothing).
+  // Counts, and the lives that carry information (a life with no minutes says nothing). Each
+  // life's minutes are summed by material into `scratch` and kept in column order, so that the
+  // sums over pairs of a life's columns below run over one triangle.
   const typeIndex = new Map<number, number>()
   const finishedBy = new Int32Array(nm), censoredBy = new Int32Array(nm), minutesBy = new Float64Array(nm)
   const typeFinished: number[] = [], typeCensored: number[] = []
-  // Typed arrays grown by doubling: the history never sits in memory as objects twice.
-  let cols = new Int32Array(1024), values = new Float64Array(1024)
-  const start: number[] = [0], types: number[] = [], failed: number[] = []
-  let used = 0
+  const livesIn = data.typeId.length
+  const lifeStart = new Int32Array(livesIn + 1), types = new Int32Array(livesIn), failed = new Uint8Array(livesIn)
+  const cols = new Int32Array(data.materialId.length), shares = new Float64Array(data.materialId.length)
+  let nLives = 0, used = 0, finishedTotal = 0
   const scratch = new Float64Array(nm)
   const touched = new Int32Array(nm)
-  const columnOfKey = new Map(materials.map((m, i) => [String(m.materialId), i]))
-  const missing = (id: unknown) => new RangeError(`material ${String(id)} has no starting factor`)
-  for (const life of lives) {
-    if (!(life.ratedLifeMinutes > 0)) throw new RangeError('a life needs a positive rated life')
+  for (let i = 0; i < livesIn; i++) {
+    const rated = data.ratedLifeMinutes[i]!
+    if (!(rated > 0)) throw new RangeError('a life needs a positive rated life')
     let n = 0
-    if (Array.isArray(life.cuts)) {
-      for (const cut of life.cuts as readonly LifeCut[]) {
-        const j = column.get(cut.materialId)
-        if (j === undefined) throw missing(cut.materialId)
-        if (!(cut.minutes > 0)) continue
-        if (scratch[j] === 0) touched[n++] = j
-        scratch[j]! += cut.minutes
+    for (let q = data.start[i]!, q1 = data.start[i + 1]!; q < q1; q++) {
+      const j = column.get(data.materialId[q]!)
+      if (j === undefined) throw new RangeError(`material ${data.materialId[q]} has no starting factor`)
+      const minutes = data.minutes[q]!
+      if (!(minutes > 0)) continue
+      if (scratch[j] === 0) {
+        // Insert j in order (a life touches a handful of materials).
+        let x = n++
+        for (; x > 0 && touched[x - 1]! > j; x--) touched[x] = touched[x - 1]!
+        touched[x] = j
       }
-    } else {
-      const byId = life.cuts as Record<string, number>
-      for (const id in byId) {
-        const j = columnOfKey.get(id)
-        if (j === undefined) throw missing(id)
-        const minutes = +byId[id]!
-        if (!(minutes > 0)) continue
-        if (scratch[j] === 0) touched[n++] = j
-        scratch[j]! += minutes
-      }
+      scratch[j]! += minutes
     }
     if (!n) continue
-    let t = typeIndex.get(life.typeId)
-    if (t === undefined) { t = typeIndex.size; typeIndex.set(life.typeId, t); typeFinished.push(0); typeCensored.push(0) }
-    if (life.wornOut) typeFinished[t]!++
-    else typeCensored[t]!++
-    if (used + n > cols.length) {
-      const c = new Int32Array(2 * cols.length + n); c.set(cols); cols = c
-      const v = new Float64Array(2 * values.length + n); v.set(values); values = v
-    }
+    const worn = data.wornOut[i] !== 0
+    let t = typeIndex.get(data.typeId[i]!)
+    if (t === undefined) { t = typeIndex.size; typeIndex.set(data.typeId[i]!, t); typeFinished.push(0); typeCensored.push(0) }
+    if (worn) { typeFinished[t]!++; finishedTotal++ } else typeCensored[t]!++
     for (let x = 0; x < n; x++) {
       const j = touched[x]!
-      if (life.wornOut) finishedBy[j]!++
+      if (worn) finishedBy[j]!++
       else censoredBy[j]!++
       minutesBy[j]! += scratch[j]!
       cols[used] = j
-      values[used++] = scratch[j]! / life.ratedLifeMinutes
+      shares[used++] = scratch[j]! / rated
       scratch[j] = 0
     }
-    start.push(used)
-    types.push(t)
-    failed.push(life.wornOut ? 1 : 0)
+    types[nLives] = t
+    failed[nLives++] = worn ? 1 : 0
+    lifeStart[nLives] = used
   }
-  const flat: Flat = { start: Int32Array.from(start), col: cols.subarray(0, used), value: values.subarray(0, used), type: Int32Array.from(types), failed: Uint8Array.from(failed) }
+  // Each cut as its column and its minutes ÷ the life's rated life.
+  const col = cols.subarray(0, used), share = shares.subarray(0, used)
   const nt = typeIndex.size
-  const finishedTotal = failed.reduce((a, b) => a + b, 0)
 
   // Parameters: log w of each material with lives (but the reference), log ρ of each type, log σ.
+  // Numbered in column order, so a life's parameters come in increasing order too.
   const param = new Int32Array(nm).fill(-1)
   const paramMaterial: number[] = []
   for (let j = 0; j < nm; j++) if (j !== ref && finishedBy[j]! + censoredBy[j]! > 0) { param[j] = paramMaterial.length; paramMaterial.push(j) }
   const pw = paramMaterial.length
   const ps = pw + nt // index of log σ
   const np = ps + 1
-  const logStart = materials.map((m) => Math.log(m.startingFactor))
 
-  const usable = flat.type.length > 0 && (finishedTotal > 0 || k > 0)
+  const usable = nLives > 0 && (finishedTotal > 0 || k > 0)
   const theta = new Float64Array(np)
   paramMaterial.forEach((j, i) => { theta[i] = logStart[j]! })
   theta[ps] = Math.log(sigma0)
 
-  const nLives = flat.type.length
   // How parallel the data's columns are: Σ over lives of the products of the minutes' shares
   // (at the starting factors) of every material and of each type (1 on its lives). Exactly
   // parallel columns are materials "always cut together", however many lives there are.
+  // Summed over the upper triangle (a life's columns are in order, its type's last), then mirrored.
   const cosN = nm + nt
   const cross = new Float64Array(cosN * cosN)
   {
     const wStart = Float64Array.from(logStart, Math.exp)
-    const pc = new Float64Array(cosN)
+    // A life's shares and their columns, side by side.
+    const pc = new Float64Array(nm + 1)
     const ic = new Int32Array(nm + 1)
     for (let i = 0; i < nLives; i++) {
-      const q0 = flat.start[i]!, q1 = flat.start[i + 1]!
+      const q0 = lifeStart[i]!, q1 = lifeStart[i + 1]!
       let A = 0
-      for (let q = q0; q < q1; q++) A += flat.value[q]! * wStart[flat.col[q]!]!
+      for (let q = q0; q < q1; q++) A += share[q]! * wStart[col[q]!]!
       let m = 0
-      for (let q = q0; q < q1; q++) { const j = flat.col[q]!; pc[j] = flat.value[q]! * wStart[j]! / A; ic[m++] = j }
-      const tc = nm + flat.type[i]!
-      pc[tc] = 1
-      ic[m++] = tc
+      for (let q = q0; q < q1; q++) { const j = col[q]!; pc[m] = share[q]! * wStart[j]! / A; ic[m++] = j }
+      pc[m] = 1
+      ic[m++] = nm + types[i]!
       for (let x = 0; x < m; x++) {
-        const a = ic[x]!, pa = pc[a]!, row = a * cosN
-        for (let y = 0; y < m; y++) cross[row + ic[y]!]! += pa * pc[ic[y]!]!
+        const pa = pc[x]!, row = ic[x]! * cosN
+        for (let y = x; y < m; y++) cross[row + ic[y]!]! += pa * pc[y]!
       }
     }
+    for (let a = 0; a < cosN; a++) for (let b = a + 1; b < cosN; b++) cross[b * cosN + a] = cross[a * cosN + b]!
   }
   const wNow = new Float64Array(nm)
-  const p = new Float64Array(np)
+  // A life's damage shares and the parameters they belong to, side by side.
+  const p = new Float64Array(nm)
   const idx = new Int32Array(nm)
 
   /**
@@ -237,14 +261,14 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
     const inv = 1 / sigma
     let ll = 0
     for (let i = 0; i < nLives; i += stride) {
-      const q0 = flat.start[i]!, q1 = flat.start[i + 1]!
+      const q0 = lifeStart[i]!, q1 = lifeStart[i + 1]!
       let A = 0
-      for (let q = q0; q < q1; q++) A += flat.value[q]! * wNow[flat.col[q]!]!
-      const t = pw + flat.type[i]!
+      for (let q = q0; q < q1; q++) A += share[q]! * wNow[col[q]!]!
+      const t = pw + types[i]!
       const u = Math.log(A) - th[t]!
       const z = u * inv
       let lu: number, luu: number, ls: number, lss: number, lus: number
-      if (flat.failed[i]) {
+      if (failed[i]) {
         ll += -s - 0.5 * z * z
         if (!grad) continue
         lu = -z * inv; luu = -inv * inv; ls = -1 + z * z; lss = -2 * z * z; lus = 2 * z * inv
@@ -270,9 +294,9 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
       // ∂u/∂log w_j = p_j (the life's damage share in j), ∂u/∂log ρ = −1; ∇²u = diag(p) − ppᵀ.
       let n = 0
       for (let q = q0; q < q1; q++) {
-        const j = flat.col[q]!
+        const j = col[q]!
         const a = param[j]!
-        if (a >= 0) { p[a] = flat.value[q]! * wNow[j]! / A; idx[n++] = a }
+        if (a >= 0) { p[n] = share[q]! * wNow[j]! / A; idx[n++] = a }
       }
       grad[t]! -= lu
       grad[ps]! += ls
@@ -283,14 +307,15 @@ export function fitWearModel(lives: readonly SharpLife[], materials: readonly St
       const c = luu - lu
       for (let x = 0; x < n; x++) {
         const a = idx[x]!
-        const pa = p[a]!
+        const pa = p[x]!
         grad[a]! += lu * pa
         H[a * np + ps]! += lus * pa
         H[a * np + t]! -= luu * pa
         H[a * np + a]! += lu * pa
         const row = a * np
         const cp = c * pa
-        for (let y = 0; y < n; y++) { const b = idx[y]!; if (b >= a) H[row + b]! += cp * p[b]! }
+        // The upper triangle only (idx is in increasing order); `curvature` mirrors it.
+        for (let y = x; y < n; y++) H[row + idx[y]!]! += cp * p[y]!
       }
     }
     if (stride > 1) {

@@ -4,6 +4,7 @@ import { randomUUID } from 'node:crypto'
 import { sql } from 'kysely'
 import { PNG } from 'pngjs'
 import { beforeAll, describe, expect, it } from 'vitest'
+import { withLoggedCut } from '../../shared/kerf/cut-answer'
 import { appDb } from '../support/db'
 import { Client } from '../support/http'
 import { makeShop, type TestShop } from '../support/shops'
@@ -78,14 +79,17 @@ describe('life used through the route (Palmgren–Miner linear damage rule)', ()
     const first = await cut(shop.operator, c.id, { materialId: mdf.id, minutes: 120 })
     expect(first.status).toBe(201)
     expect(first.body.lifeUsed).toBeCloseTo((120 * mdf.wearFactor) / 600, 6)
+    const before = (await shop.operator.get(`/api/cutters/${c.id}`)).body
     const second = await cut(shop.operator, c.id, { materialId: acp.id, minutes: 90, rpm: 18000, feedMmPerMin: 2500, note: 'sign faces' })
     expect(second.body.lifeUsed).toBeCloseTo(expected, 6)
     expect(second.body.minutesTotal).toBe(210)
 
     const view = (await shop.operator.get(`/api/cutters/${c.id}`)).body
     expect(view.lifeUsed).toBeCloseTo(expected, 6)
-    // The cut's answer carries the cutter as the pages show it, so the phone need not fetch again.
-    expect(second.body.cutter).toEqual(view)
+    // The cut's answer carries what changed, and the page's view with it put in is the view a
+    // fresh read gives, so the phone need not fetch again.
+    expect(second.body.cutter.remainingMinutes).toBeUndefined()
+    expect(withLoggedCut(before, second.body.cutter)).toEqual(view)
     const remainingMdf = view.remainingMinutes.find((r: { materialId: number }) => r.materialId === mdf.id).minutes
     expect(remainingMdf).toBeCloseTo(((1 - expected) * 600) / mdf.wearFactor, 1)
     expect(view.recentCuts[0]).toMatchObject({ minutes: 90, materialName: 'Aluminium composite panel', rpm: 18000, note: 'sign faces', operatorName: 'Test Operator' })
@@ -94,8 +98,15 @@ describe('life used through the route (Palmgren–Miner linear damage rule)', ()
     // the answer's recent cuts are in the order and with the names a fresh read gives.
     const late = await cut(shop.operator, c.id, { materialId: mdf.id, minutes: 15, machineId: fx.machines.other, cutAt: new Date(Date.now() - 3_600_000).toISOString() })
     expect(late.status).toBe(201)
-    expect(late.body.cutter).toEqual((await shop.operator.get(`/api/cutters/${c.id}`)).body)
-    expect(late.body.cutter.recentCuts.map((r: { minutes: number }) => r.minutes)).toEqual([90, 120, 15])
+    const shown = withLoggedCut(view, late.body.cutter)
+    expect(shown).toEqual((await shop.operator.get(`/api/cutters/${c.id}`)).body)
+    expect(shown.recentCuts.map((r: { minutes: number }) => r.minutes)).toEqual([90, 120, 15])
+    // The same answer again (a log sent twice) leaves the page as it was.
+    expect(withLoggedCut(shown, late.body.cutter)).toEqual(shown)
+    // A replay of the key answers the cutter as it is now, which puts in the same way.
+    const again = await shop.operator.post(`/api/cutters/${c.id}/cuts`, { idempotencyKey: late.body.log.idempotencyKey, materialId: mdf.id, minutes: 15, outcome: 'clean' })
+    expect(again.status).toBe(200)
+    expect(withLoggedCut(view, again.body.cutter)).toEqual(shown)
 
     const { events } = await dbRow(c.id)
     expect(events.filter((e) => e.kind === 'cut_logged')).toHaveLength(3)
@@ -291,9 +302,12 @@ describe('returning and flagging', () => {
   it('a cut logged as broken retires the cutter too', async () => {
     const c = fx.cutters[3]!
     await shop.operator.post(`/api/cutters/${c.id}/load`, { machineId: fx.machines.changer })
+    const before = (await shop.operator.get(`/api/cutters/${c.id}`)).body
     const res = await cut(shop.operator, c.id, { materialId: material.HDPE!.id, minutes: 4, outcome: 'broken' })
     expect(res.body.status).toBe('retired')
-    expect(res.body.cutter).toEqual((await shop.operator.get(`/api/cutters/${c.id}`)).body)
+    expect(withLoggedCut(before, res.body.cutter)).toEqual((await shop.operator.get(`/api/cutters/${c.id}`)).body)
+    const { events } = await dbRow(c.id)
+    expect(events.map((e) => e.kind)).toEqual(expect.arrayContaining(['cut_logged', 'flagged_broken']))
     expect((await dbRow(c.id)).cutter).toMatchObject({ retired_reason: 'broken', machine_id: null })
   })
 })

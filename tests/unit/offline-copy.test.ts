@@ -28,8 +28,8 @@ describe('a cutter from the copy', () => {
     const c = cutterFromCopy(copy, 'K7Q2M9P')!
     // (1 - 0.25) x 600 x 0.8 / 1 = 360; / 1.5 = 240.
     expect(c.remainingMinutes).toEqual([
-      { materialId: 1, materialName: 'MDF', common: true, minutes: 360 },
-      { materialId: 2, materialName: 'Cast acrylic', common: true, minutes: 240 },
+      { materialId: 1, materialName: 'MDF', common: true, wearFactor: 1, minutes: 360 },
+      { materialId: 2, materialName: 'Cast acrylic', common: true, wearFactor: 1.5, minutes: 240 },
     ])
     expect(c.machine).toEqual({ id: 4, name: 'Big router' })
     expect(c.due).toBeNull()

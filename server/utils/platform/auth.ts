@@ -11,6 +11,7 @@ import type { H3Event } from 'h3'
 import { sql } from 'kysely'
 import { ROLE_LABELS, roleAtLeast, type Role } from '#shared/kerf/roles'
 import { PREPARED, type Queryable } from '../../db/connect'
+import { reusableQuery } from '../../db/reusable'
 
 export interface SessionUser {
   id: number
@@ -59,20 +60,22 @@ async function openedSessionOf(event: H3Event): Promise<OpenedSession | undefine
   return session
 }
 
+/** The person with their session row and its device, if the session still holds: every request's read. */
+const readSessionUser = reusableQuery(['userId', 'shopId', 'sid'], (db, v: { userId: number, shopId: number, sid: string }) => db
+  .selectFrom('users as u')
+  .leftJoin('user_sessions as s', (j) => j.onRef('s.user_id', '=', 'u.id').on('s.id', '=', v.sid).on('s.expires_at', '>', sql<Date>`now()`))
+  .leftJoin('shop_devices as d', (j) => j.onRef('d.id', '=', 's.device_id').on('d.revoked_at', 'is', null))
+  .select(['u.id', 'u.shop_id', 'u.role', 'u.name', 'u.email', 'u.length_unit', 'u.active', 's.id as sid', 's.device_id', 'd.token_hash as device_hash'])
+  .where('u.id', '=', v.userId)
+  .where('u.shop_id', '=', v.shopId)
+  .modifyEnd(PREPARED))
+
 export async function requireUser(event: H3Event): Promise<SessionUser> {
   const session = await openedSessionOf(event)
   if (!session) {
     throw createError({ statusCode: 401, statusMessage: 'Sign in to continue.' })
   }
-  const row = await useDb()
-    .selectFrom('users as u')
-    .leftJoin('user_sessions as s', (j) => j.onRef('s.user_id', '=', 'u.id').on('s.id', '=', session.sid).on('s.expires_at', '>', sql<Date>`now()`))
-    .leftJoin('shop_devices as d', (j) => j.onRef('d.id', '=', 's.device_id').on('d.revoked_at', 'is', null))
-    .select(['u.id', 'u.shop_id', 'u.role', 'u.name', 'u.email', 'u.length_unit', 'u.active', 's.id as sid', 's.device_id', 'd.token_hash as device_hash'])
-    .where('u.id', '=', session.id)
-    .where('u.shop_id', '=', session.shopId)
-    .modifyEnd(PREPARED)
-    .executeTakeFirst()
+  const { rows: [row] } = await readSessionUser(useDb(), { userId: session.id, shopId: session.shopId, sid: session.sid })
   if (!row || !row.active || !row.sid) {
     await clearUserSession(event)
     throw createError({

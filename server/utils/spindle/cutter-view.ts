@@ -1,20 +1,18 @@
 // The cutter as the phone page and the crib see it: type, state, life and remaining minutes
 // in the shop's materials, and the last few cut logs. One place builds it for every route.
+import { RECENT_CUTS } from '#shared/kerf/cut-answer'
 import { dueAction, dueReason } from '#shared/kerf/due'
-import { remainingMinutes } from '#shared/kerf/life'
+import { remainingInMaterials } from '#shared/kerf/life'
 import { sql } from 'kysely'
 import { jsonArrayFrom } from 'kysely/helpers/postgres'
 import { PREPARED, type Queryable } from '../../db/connect'
 
-/** How many of its latest counting logs the cutter view shows. */
-export const RECENT_CUTS = 5
-
 /**
- * The cutter view's read: the cutter with its type, shop and machine, the shop's active materials
- * and the cutter's last few counting logs as JSON, in one statement. Logging a cut extends it with
- * what the log needs, so that the cut's answer costs no read of its own.
+ * The cutter's state as the view shows it: the cutter with its type, shop and machine, without the
+ * lists. Logging a cut extends it with what the log needs, so that the cut's answer costs no read
+ * of its own.
  */
-export function cutterViewQuery(db: Queryable, shopId: number) {
+export function cutterStateQuery(db: Queryable, shopId: number) {
   return db.selectFrom('cutters as c')
     .innerJoin('cutter_types as t', (j) => j.onRef('t.id', '=', 'c.type_id').onRef('t.shop_id', '=', 'c.shop_id'))
     .innerJoin('shops as s', 's.id', 'c.shop_id')
@@ -28,6 +26,18 @@ export function cutterViewQuery(db: Queryable, shopId: number) {
       // The type's longest logged cut (kept by a trigger on the logs), against which the cut form weighs a new one.
       't.longest_cut_minutes',
     ])
+    .where('c.shop_id', '=', shopId)
+}
+export type CutterStateRow = NonNullable<Awaited<ReturnType<ReturnType<typeof cutterStateQuery>['executeTakeFirst']>>>
+
+/**
+ * The cutter view's read: the cutter's state with the shop's active materials and the cutter's
+ * last few counting logs as JSON, in one statement.
+ */
+export function cutterViewQuery(db: Queryable, shopId: number) {
+  return cutterStateQuery(db, shopId)
+    // Constants are written into the text, not sent as parameters: the statement is prepared, and
+    // PostgreSQL's generic plan for a parameter limit read every log of the cutter (4× the time).
     .select((eb) => [
       jsonArrayFrom(eb.selectFrom('materials as mt').select(['mt.id', 'mt.name', 'mt.wear_factor', 'mt.common'])
         .whereRef('mt.shop_id', '=', 'c.shop_id').where('mt.active', '=', sql.lit(true))
@@ -42,9 +52,6 @@ export function cutterViewQuery(db: Queryable, shopId: number) {
         .orderBy('l.cut_at', 'desc').orderBy('l.id', 'desc')
         .limit(sql.lit(RECENT_CUTS))).as('cuts'),
     ])
-    // Constants are written into the text, not sent as parameters: the statement is prepared, and
-    // PostgreSQL's generic plan for a parameter limit read every log of the cutter (4× the time).
-    .where('c.shop_id', '=', shopId)
 }
 export type CutterViewRow = NonNullable<Awaited<ReturnType<ReturnType<typeof cutterViewQuery>['executeTakeFirst']>>>
 /** A recent log as the view's read gives it: inside JSON the times arrive as text. */
@@ -58,9 +65,17 @@ export async function cutterView(db: Queryable, shopId: number, where: { id: num
   return c && toCutterView(c)
 }
 
-/** The cutter as the pages show it, from the view's read (or from it and a cut just written). */
-export function toCutterView(c: Omit<CutterViewRow, 'cuts'> & { cuts: RecentCutRow[] }) {
-  const { materials, cuts } = c
+/** The cutter as the pages show it, from the view's read. */
+export function toCutterView(c: CutterViewRow) {
+  return {
+    ...toCutterState(c),
+    remainingMinutes: remainingInMaterials(c.materials.map((m) => ({ ...m, wearFactor: m.wear_factor })), c.life_used, c.rated_life_minutes, c.life_scale),
+    recentCuts: c.cuts.map(toRecentCut),
+  }
+}
+
+/** The cutter view without its lists: what a logged cut's answer carries with the new log. */
+export function toCutterState(c: CutterStateRow) {
   const forDue = { status: c.status, lifeUsed: c.life_used, flagged: c.flagged, regrindCount: c.regrind_count, diameterMm: c.diameter_mm }
   const reason = dueReason(forDue, c.life_threshold)
   return {
@@ -100,31 +115,31 @@ export function toCutterView(c: Omit<CutterViewRow, 'cuts'> & { cuts: RecentCutR
       toolMaterial: c.tool_material,
       maxRegrinds: c.max_regrinds,
     },
-    remainingMinutes: materials.map((m) => ({
-      materialId: m.id,
-      materialName: m.name,
-      common: m.common,
-      minutes: Math.round(remainingMinutes(c.life_used, c.rated_life_minutes, m.wear_factor, c.life_scale) * 10) / 10,
-    })),
-    recentCuts: cuts.map((l) => ({
-      id: l.id,
-      cutAt: new Date(l.cut_at),
-      /** When it was logged: its operator may correct it for 24 hours from then. */
-      loggedAt: new Date(l.created_at),
-      minutes: l.minutes,
-      materialId: l.material_id,
-      materialName: l.material_name,
-      operatorId: l.operator_id,
-      machineName: l.machine_name,
-      operatorName: l.operator_name,
-      outcome: l.outcome,
-      rpm: l.rpm,
-      feedMmPerMin: l.feed_mm_per_min,
-      note: l.note,
-    })),
+  }
+}
+
+/** A recent log as the view lists it. */
+export function toRecentCut(l: RecentCutRow) {
+  return {
+    id: l.id,
+    cutAt: new Date(l.cut_at),
+    /** When it was logged: its operator may correct it for 24 hours from then. */
+    loggedAt: new Date(l.created_at),
+    minutes: l.minutes,
+    materialId: l.material_id,
+    materialName: l.material_name,
+    operatorId: l.operator_id,
+    machineName: l.machine_name,
+    operatorName: l.operator_name,
+    outcome: l.outcome,
+    rpm: l.rpm,
+    feedMmPerMin: l.feed_mm_per_min,
+    note: l.note,
   }
 }
 export type CutterView = ReturnType<typeof toCutterView>
+/** What a logged cut's answer carries: the view's state, and the logs to put among its recent ones. */
+export type CutterAfterCut = ReturnType<typeof toCutterState> & { recentCuts: Array<ReturnType<typeof toRecentCut>> }
 
 /** The cutter, or a 404 that says so plainly. */
 export async function requireCutterView(db: Queryable, shopId: number, where: { id: number } | { code: string }): Promise<CutterView> {

@@ -61,10 +61,10 @@ describe('remaining minutes', () => {
     const wrapper = await mountSuspended(RemainingMinutes, {
       props: {
         items: [
-          { materialId: 1, materialName: 'MDF', common: true, minutes: 312.4 },
-          { materialId: 2, materialName: 'HDPE', common: true, minutes: 45 },
-          { materialId: 3, materialName: 'Aluminium 6061', common: false, minutes: 20 },
-          { materialId: 4, materialName: 'Plywood', common: true, minutes: 0 },
+          { materialId: 1, materialName: 'MDF', common: true, wearFactor: 1, minutes: 312.4 },
+          { materialId: 2, materialName: 'HDPE', common: true, wearFactor: 0.8, minutes: 45 },
+          { materialId: 3, materialName: 'Aluminium 6061', common: false, wearFactor: 3, minutes: 20 },
+          { materialId: 4, materialName: 'Plywood', common: true, wearFactor: 1.2, minutes: 0 },
         ],
       },
     })

@@ -1,5 +1,5 @@
-// Log a cut (server/utils/spindle/cuts.ts): 201 with the log, the cutter's new totals and the
-// cutter as the pages show it; 200 with the first log when its idempotency key was sent before.
+// Log a cut (server/utils/spindle/cuts.ts): 201 with the log, the cutter's new totals and what
+// changed in the cutter as the pages show it; 200 with the first log when its idempotency key was sent before.
 import { CutLogBody, CutterIdParams } from '#shared/schemas/spindle'
 
 export default defineEventHandler(async (event) => {
