@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const row = await db.selectFrom('users').select('password_hash').where('shop_id', '=', user.shopId).where('id', '=', user.id).executeTakeFirstOrThrow()
   if (!row.password_hash || !(await verifyPassword(row.password_hash, currentPassword))) {
     const message = row.password_hash ? 'this is not your current password' : user.email ? 'this account signs in without a password; ask the owner for a reset link' : 'you sign in with a PIN on the shop\'s devices; ask the crib manager to change it'
-    throw createError({ statusCode: 400, statusMessage: `currentPassword: ${message}`, data: { fields: { currentPassword: message } } })
+    badField('currentPassword', message)
   }
   await loginSucceeded(attempt)
   const hash = await hashPassword(newPassword)

@@ -7,7 +7,7 @@ import type { z } from 'zod'
 import type { Db } from '../../db/connect'
 import type { SessionUser } from '../platform/auth'
 import { sendShopMail } from '../platform/shop-mail'
-import { fieldError } from '../platform/validation'
+import { badField, fieldError } from '../platform/validation'
 import { lockOrder, replaceOrderLines } from './order-lines'
 import { orderPdf } from './order-pdf'
 import { orderLetterhead, orderMail, orderNumber, orderView } from './orders'
@@ -64,7 +64,7 @@ export async function receiveOrder(db: Db, user: SessionUser, id: number, body: 
     const cutters = []
     for (const input of body.lines) {
       const line = byId.get(input.lineId)
-      if (!line) throw createError({ statusCode: 400, statusMessage: `lines: line ${input.lineId} is not on ${orderNumber(order.number)}` })
+      if (!line) badField('lines', `line ${input.lineId} is not on ${orderNumber(order.number)}`)
       const open = line.quantity - line.received_quantity
       if (input.quantity > open) {
         fieldError({ [`line-${line.id}`]: `at most ${open}` }, { message: `lines: only ${open} of ${line.name} are still to come on this order` })
@@ -77,7 +77,7 @@ export async function receiveOrder(db: Db, user: SessionUser, id: number, body: 
         .where('shop_id', '=', user.shopId).where('id', '=', line.id).execute()
       line.received_quantity += input.quantity
     }
-    if (!cutters.length) throw createError({ statusCode: 400, statusMessage: 'lines: enter how many arrived on at least one line' })
+    if (!cutters.length) badField('lines', 'enter how many arrived on at least one line')
     const complete = lines.every((l) => l.received_quantity >= l.quantity)
     await tx.updateTable('purchase_orders')
       .set({ status: complete ? 'received' : 'partly_received', ...(complete && { received_at: new Date() }) })
