@@ -19,22 +19,25 @@ function isStandIn(value: unknown): value is StandIn {
 }
 
 /**
- * A statement compiled once. `build(db, values)` builds it with a stand-in for each value it is
- * given (typed as the value); `run(db, values)` runs it with these values, on the root handle or
+ * A statement compiled once. `build(db, values)` builds it with a stand-in for each value it reads
+ * (typed as the value); the returned function runs it with a run's values, on the root handle or
  * inside a transaction. Mark it PREPARED too, so PostgreSQL also parses and plans it once.
  */
-export function reusableQuery<V extends object, R>(
-  names: ReadonlyArray<keyof V & string>,
-  build: (db: Db, values: V) => Compilable<R>,
-) {
+export function reusableQuery<V extends object, R>(build: (db: Db, values: V) => Compilable<R>) {
   let compiled: CompiledQuery<R> | undefined
   let slots: Array<keyof V | undefined> = []
   return async function run(db: Queryable, values: V): Promise<QueryResult<R>> {
     if (!compiled) {
-      const standIns = Object.fromEntries(names.map((name) => [name, { [STAND_IN]: name }])) as unknown as V
+      const read = new Set<string>()
+      const standIns = new Proxy({}, {
+        get: (_, name) => {
+          read.add(String(name))
+          return { [STAND_IN]: String(name) }
+        },
+      }) as V
       const query = build(db as Db, standIns).compile()
       const found = query.parameters.map((p) => (isStandIn(p) ? p[STAND_IN] as keyof V & string : undefined))
-      const unused = names.filter((name) => !found.includes(name))
+      const unused = [...read].filter((name) => !found.includes(name as keyof V & string))
       if (unused.length) throw new Error(`reusableQuery: ${unused.join(', ')} did not become a parameter; use each value as a value only`)
       compiled = query
       slots = found

@@ -30,7 +30,7 @@ describe('a reusable query', () => {
   it('is built once and sends each run\'s own values in their places', async () => {
     const { db, sent } = recordingDb()
     let builds = 0
-    const byCode = reusableQuery(['shopId', 'code'], (k, v: { shopId: number, code: string }) => {
+    const byCode = reusableQuery((k, v: { shopId: number, code: string }) => {
       builds++
       return (k as unknown as typeof db).selectFrom('cutters').select('id').where('shop_id', '=', v.shopId).where('code', '=', v.code).limit(sql.lit(1))
     })
@@ -45,7 +45,7 @@ describe('a reusable query', () => {
   it('refuses a builder that does not send a value as a value', async () => {
     const { db } = recordingDb()
     // The code is written into the text: every later run would send the first run's code.
-    const wrong = reusableQuery(['shopId', 'code'], (k, v: { shopId: number, code: string }) =>
+    const wrong = reusableQuery((k, v: { shopId: number, code: string }) =>
       (k as unknown as typeof db).selectFrom('cutters').select('id').where('shop_id', '=', v.shopId).where('code', '=', sql.lit(String(v.code))))
     await expect(wrong(db as never, { shopId: 3, code: 'K7Q2M9P' })).rejects.toThrow(/code did not become a parameter/)
   })

@@ -61,7 +61,7 @@ async function openedSessionOf(event: H3Event): Promise<OpenedSession | undefine
 }
 
 /** The person with their session row and its device, if the session still holds: every request's read. */
-const readSessionUser = reusableQuery(['userId', 'shopId', 'sid'], (db, v: { userId: number, shopId: number, sid: string }) => db
+const readSessionUser = reusableQuery((db, v: { userId: number, shopId: number, sid: string }) => db
   .selectFrom('users as u')
   .leftJoin('user_sessions as s', (j) => j.onRef('s.user_id', '=', 'u.id').on('s.id', '=', v.sid).on('s.expires_at', '>', sql<Date>`now()`))
   .leftJoin('shop_devices as d', (j) => j.onRef('d.id', '=', 's.device_id').on('d.revoked_at', 'is', null))

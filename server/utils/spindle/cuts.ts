@@ -39,7 +39,7 @@ const MAX_LIVES = 9999
  * the material, the machine named in the log, and any log already sent with the key. The state
  * read here is the one the answer shows, updated with what the write returns.
  */
-const readForLogQuery = reusableQuery(['shopId', 'id', 'materialId', 'idempotencyKey', 'machineId'],
+const readForLogQuery = reusableQuery(
   (db, v: { shopId: number, id: number, materialId: number, idempotencyKey: string, machineId: number | null }) => cutterStateQuery(db, v.shopId)
     .leftJoin('materials as mat', (j) => j.onRef('mat.shop_id', '=', 'c.shop_id').on('mat.id', '=', v.materialId).on('mat.active', '=', sql.lit(true)))
     .leftJoin('cut_logs as e', (j) => j.onRef('e.shop_id', '=', 'c.shop_id').on('e.idempotency_key', '=', v.idempotencyKey))
@@ -87,17 +87,13 @@ interface WriteValues {
   feedMmPerMin: number | null, outcome: CutLogInput['outcome'], cleanupMinutesPerPart: number | null, note: string,
   idempotencyKey: string, cutAt: Date, events: string
 }
-const WRITE_VALUES: Array<keyof WriteValues> = ['shopId', 'id', 'status', 'regrindCount', 'lifeScale', 'added', 'minutes', 'now', 'broken',
-  'machineId', 'operatorId', 'materialId', 'wearFactor', 'rpm', 'feedMmPerMin', 'outcome', 'cleanupMinutesPerPart', 'note',
-  'idempotencyKey', 'cutAt', 'events']
-
 /**
  * The log, the cutter's totals and the events in one statement, on condition that the cutter is
  * still as read (see tryLogCut); it answers the log with the cutter's new totals, or no row. One
  * text for every log: a break (which retires the cutter) is a value, and the events (one, or two
  * with a break) arrive as a JSON list.
  */
-const writeLog = reusableQuery(WRITE_VALUES, (db, v: WriteValues) => {
+const writeLog = reusableQuery((db, v: WriteValues) => {
   const ifBroken = <T>(then: unknown, column: string) => sql<T>`case when ${v.broken}::boolean then ${then} else ${sql.ref(column)} end`
   return db
     .with('cutter', (db) => db.updateTable('cutters')
@@ -152,7 +148,8 @@ type CutLogRow = Pick<Selectable<CutLogsTable>, typeof LOG_COLUMNS[number]>
 async function tryLogCut(db: Db, user: SessionUser, id: number, body: CutLogInput, cutAt: Date): Promise<Attempt> {
   const cutter = await readForLog(db, user.shopId, id, body)
   if (cutter.earlier_id != null) {
-    const earlier = await db.selectFrom('cut_logs').select(LOG_COLUMNS).where('id', '=', cutter.earlier_id).executeTakeFirstOrThrow()
+    const earlier = await db.selectFrom('cut_logs').select(LOG_COLUMNS)
+      .where('shop_id', '=', user.shopId).where('id', '=', cutter.earlier_id).executeTakeFirstOrThrow()
     if (earlier.cutter_id !== id) throw createError({ statusCode: 409, statusMessage: KEY_USED })
     return { replay: true, log: earlier, totals: { life_used: cutter.life_used, minutes_total: cutter.minutes_total, status: cutter.status } }
   }
